@@ -89,7 +89,7 @@ export const strandGroupSchema = z
     if (g.profile === 'harped-2' && g.harpAt === undefined) ctx.addIssue({ code: 'custom', path: ['harpAt'], message: 'a two-point harp needs harpAt, the distance of each harp point from its end' });
   });
 
-export const predictInputSchema = z
+export const predictBaseSchema = z
   .strictObject({
     units: z.enum(['us', 'si']).default('us'),
     length: pos,
@@ -125,8 +125,13 @@ export const predictInputSchema = z
         appliedAtAgeDays: pos.default(60),
       })
       .optional(),
-  })
-  .superRefine((v, ctx) => {
+  });
+
+type MemberFields = Omit<z.output<typeof predictBaseSchema>, 'agesDays'>;
+
+/** Cross-field checks shared by the prediction input and the stored design. */
+export function checkMember(v: MemberFields, ctx: z.RefinementCtx): void {
+  {
     const lengthIn = v.units === 'us' ? v.length * 12 : (v.length * 1000) / 25.4;
     v.strands.forEach((g, i) => {
       const toIn = (x: number): number => (v.units === 'us' ? x * 12 : (x * 1000) / 25.4);
@@ -140,7 +145,10 @@ export const predictInputSchema = z
     });
     if (v.concrete.modulus === 'measured' && v.concrete.modulusAtRelease === undefined) ctx.addIssue({ code: 'custom', path: ['concrete', 'modulusAtRelease'], message: 'a measured modulus needs its value at release' });
     if (v.concrete.fci > v.concrete.fc) ctx.addIssue({ code: 'custom', path: ['concrete', 'fci'], message: "f'ci cannot exceed f'c" });
-  });
+  }
+}
+
+export const predictInputSchema = predictBaseSchema.superRefine(checkMember);
 
 export type PredictInput = z.input<typeof predictInputSchema>;
 export type PredictParsed = z.output<typeof predictInputSchema>;

@@ -1,0 +1,67 @@
+import { randomUUID } from 'node:crypto';
+import { existsSync } from 'node:fs';
+import { resolve } from 'node:path';
+import cookieParser from 'cookie-parser';
+import express, { type Express } from 'express';
+import helmet from 'helmet';
+import { pinoHttp } from 'pino-http';
+import { ERROR_CODES } from '#shared/api/errors';
+import { authRoutes } from './auth/auth.routes';
+import { sessionMiddleware } from './auth/session';
+import { camberRoutes } from './camber/camber.routes';
+import { ROOT } from './config';
+import type { Deps } from './deps';
+import { AppError, errorMiddleware } from './http/errors';
+import { mountRoutes, type RouteDef } from './http/route';
+import { pieceRoutes } from './pieces/pieces.routes';
+import { readingRoutes } from './readings/readings.routes';
+import { systemRoutes } from './system.routes';
+import { userRoutes } from './users/users.routes';
+
+export const CLIENT_DIR = resolve(ROOT, '.build', 'client');
+
+/** The whole route table: the API, the OpenAPI document and the role matrix test all read it. */
+export function buildRoutes(d: Deps): RouteDef[] {
+  const table: RouteDef[] = [];
+  table.push(...authRoutes(d), ...userRoutes(d), ...pieceRoutes(d), ...readingRoutes(d), ...camberRoutes(), ...systemRoutes(d, () => table));
+  return table;
+}
+
+export function createApp(d: Deps, clientDir: string | null = CLIENT_DIR): Express {
+  const app = express();
+  app.disable('x-powered-by');
+  app.use(
+    helmet({
+      // Plain HTTP on a plant intranet must still load its own assets (helmet issues #429/#480).
+      contentSecurityPolicy: { directives: { 'img-src': ["'self'", 'data:', 'blob:'], 'upgrade-insecure-requests': null } },
+      strictTransportSecurity: d.cfg.NODE_ENV === 'production',
+    }),
+  );
+  app.use(
+    pinoHttp({
+      logger: d.log,
+      genReqId: (req, res) => {
+        const id = randomUUID();
+        res.setHeader('X-Request-Id', id);
+        return id;
+      },
+      customProps: (req) => ({ userId: req.user?.id, role: req.user?.role }),
+      autoLogging: { ignore: (req) => !req.url?.startsWith('/api') },
+    }),
+  );
+  const api = express.Router();
+  api.use(express.json({ limit: '256kb' }));
+  api.use(cookieParser());
+  api.use(sessionMiddleware(d.cfg, d.ds));
+  mountRoutes(api, buildRoutes(d));
+  api.use((req, _res, next) => next(new AppError(404, ERROR_CODES.notFound, `no API route ${req.method} ${req.path}`)));
+  app.use('/api', api);
+
+  if (clientDir && existsSync(clientDir)) {
+    app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
+    // The client routes in the browser: every other GET gets the app shell.
+    app.get(/^\/(?!api\/).*/, (_req, res) => res.sendFile(resolve(clientDir, 'index.html')));
+  }
+  app.use(errorMiddleware);
+  return app;
+}

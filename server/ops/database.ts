@@ -1,0 +1,40 @@
+import type { Config } from '../config';
+import { createDataSource } from '../db/data-source';
+import { ensureDatabase, ensureLocalPostgres } from './postgres';
+
+/** The database of this config exists and is reachable: the local cluster unless DATABASE_URL is set. */
+export async function prepareDatabase(cfg: Config): Promise<void> {
+  if (!cfg.DATABASE_URL) await ensureLocalPostgres(cfg.PG_PORT);
+  await ensureDatabase(cfg.databaseUrl);
+}
+
+export async function migrate(url: string): Promise<string[]> {
+  const ds = createDataSource(url, 2);
+  await ds.initialize();
+  try {
+    const ran = await ds.runMigrations({ transaction: 'each' });
+    return ran.map((m) => m.name);
+  } finally {
+    await ds.destroy();
+  }
+}
+
+export async function revertLast(url: string): Promise<void> {
+  const ds = createDataSource(url, 2);
+  await ds.initialize();
+  try {
+    await ds.undoLastMigration({ transaction: 'each' });
+  } finally {
+    await ds.destroy();
+  }
+}
+
+export async function withDataSource<T>(url: string, fn: (ds: ReturnType<typeof createDataSource>) => Promise<T>): Promise<T> {
+  const ds = createDataSource(url, 4);
+  await ds.initialize();
+  try {
+    return await fn(ds);
+  } finally {
+    await ds.destroy();
+  }
+}

@@ -1,0 +1,57 @@
+import type { QueryClient } from '@tanstack/react-query';
+import { createBrowserRouter, redirect, type LoaderFunctionArgs } from 'react-router';
+import { meQuery } from '../features/auth/api';
+import { jobsQuery, pieceQuery, piecesQuery } from '../features/pieces/api';
+import { usersQuery } from '../features/users/api';
+import { Layout } from './routes/layout';
+import { LoginPage } from './routes/login';
+import { ForgotPasswordPage } from './routes/forgot-password';
+import { ResetPasswordPage } from './routes/reset-password';
+import { PiecesPage, listFilters } from './routes/pieces';
+import { PiecePage } from './routes/piece';
+import { UsersPage } from './routes/users';
+import { RouteError } from './routes/route-error';
+
+export function createRouter(qc: QueryClient) {
+  const requireUser = async ({ request }: LoaderFunctionArgs) => {
+    const me = await qc.ensureQueryData(meQuery);
+    if (!me) {
+      const next = new URL(request.url).pathname;
+      throw redirect(`/login${next !== '/' ? `?next=${encodeURIComponent(next)}` : ''}`);
+    }
+    return me;
+  };
+  return createBrowserRouter([
+    { path: '/login', element: <LoginPage /> },
+    { path: '/forgot-password', element: <ForgotPasswordPage /> },
+    { path: '/reset-password', element: <ResetPasswordPage /> },
+    {
+      path: '/',
+      loader: requireUser,
+      element: <Layout />,
+      errorElement: <RouteError />,
+      children: [
+        {
+          index: true,
+          loader: async ({ request }) => {
+            await Promise.all([qc.ensureQueryData(piecesQuery(listFilters(new URL(request.url).searchParams))), qc.ensureQueryData(jobsQuery)]);
+            return null;
+          },
+          element: <PiecesPage />,
+        },
+        {
+          path: 'pieces/:id',
+          loader: async ({ params }) => qc.ensureQueryData(pieceQuery(params.id!)),
+          element: <PiecePage />,
+          errorElement: <RouteError />,
+        },
+        {
+          path: 'admin/users',
+          loader: async () => Promise.all([qc.ensureQueryData(usersQuery), qc.ensureQueryData(jobsQuery)]),
+          element: <UsersPage />,
+          errorElement: <RouteError />,
+        },
+      ],
+    },
+  ]);
+}
