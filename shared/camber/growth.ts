@@ -4,7 +4,7 @@
 // with the prestress loss after transfer from AASHTO LRFD 5.9.3.4 (refined estimates) evaluated at
 // intermediate ages (reference §4.3), and the PCI multipliers (Martin 1977) for method "multipliers".
 import { aci209CreepRatio } from './models/aci209';
-import { kid, relaxationLoss } from './losses';
+import { fcgp, kid, relaxationLoss } from './losses';
 import { EP_KSI } from './materials';
 import type { PreparedMember } from './prepare';
 
@@ -47,6 +47,13 @@ export function timelineOf(m: PreparedMember): Timeline {
   };
 }
 
+/**
+ * The AAEM camber expression (reference §2.3): Δpi·(1 + φ) − Δpi·(ΔP/Pi)·(1 + χ·φ) − Δsw·(1 + φ).
+ * With χ = 0.5 it is Branson's form as given in ACI 435R-95.
+ */
+export const aaemCamber = (dPs: number, dSw: number, phi: number, lossRatio: number, chi = CHI): number =>
+  dPs * (1 + phi) - dPs * lossRatio * (1 + chi * phi) - dSw * (1 + phi);
+
 /** Creep, shrinkage and relaxation loss after transfer as a fraction of the force after transfer. */
 export function lossFraction(m: PreparedMember, t: number): number {
   if (t <= m.releaseAge) return 0;
@@ -56,10 +63,10 @@ export function lossFraction(m: PreparedMember, t: number): number {
   const p = m.forceAfterRelease;
   const mg = (m.selfWeightKipPerIn * m.lengthIn ** 2) / 8;
   // fcgp: concrete stress at the strand centroid at midspan after transfer (AASHTO 5.9.3.2.3a).
-  const fcgp = p / ag + (p * e * e) / ig - (mg * e) / ig;
+  const fc = fcgp(p, ag, ig, e, mg);
   const k = kid({ aps: m.strandArea, ag, ig, epg: e, eci: m.eci, creepFinal: m.model.creep(FINAL_AGE_DAYS, ti) });
   const sh = m.model.shrinkage(t) * EP_KSI * k; // ΔfpSR, Eq. 5.9.3.4.2a-1
-  const cr = (EP_KSI / m.eci) * Math.max(0, fcgp) * m.model.creep(t, ti) * k; // ΔfpCR, Eq. 5.9.3.4.2b-1
+  const cr = (EP_KSI / m.eci) * Math.max(0, fc) * m.model.creep(t, ti) * k; // ΔfpCR, Eq. 5.9.3.4.2b-1
   const re = relaxationLoss(m.fpj, t) - relaxationLoss(m.fpj, ti);
   return ((sh + cr + re) * m.strandArea) / p;
 }
@@ -93,7 +100,7 @@ export function camberAt(m: PreparedMember, tl: Timeline, t: number, method = m.
   }
   const phi = m.model.creep(t, ti);
   const loss = lossFraction(m, t);
-  let camber = m.dPs * (1 + phi) - m.dPs * loss * (1 + CHI * phi) - dSwBed * (1 + phi);
+  let camber = aaemCamber(m.dPs, dSwBed, phi, loss);
   for (const s of tl.supports) {
     if (s.ageDays > t) break;
     const dNew = m.dSw(s.overhangIn);

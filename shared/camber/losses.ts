@@ -13,14 +13,16 @@ export function elasticShorteningLoss(p: { aps: number; fpbt: number; ig: number
   return num / den;
 }
 
+/** Concrete stress at the strand centroid, fcgp = P/A + P·e²/I − Mg·e/I (ksi), compression positive. */
+export const fcgp = (p: number, ag: number, ig: number, e: number, mg: number): number => p / ag + (p * e * e) / ig - (mg * e) / ig;
+
 /** Elastic shortening by iteration on ΔfpES = (Ep/Eci)·fcgp (AASHTO 5.9.3.2.3a), for cross-checks. */
 export function elasticShorteningIterated(p: { aps: number; fpbt: number; ig: number; ag: number; em: number; mg: number; eci: number; ep?: number }, firstGuess = 0): number {
   const ep = p.ep ?? EP_KSI;
   let loss = firstGuess;
   for (let k = 0; k < 100; k++) {
     const force = p.aps * (p.fpbt - loss);
-    const fcgp = force / p.ag + (force * p.em * p.em) / p.ig - (p.mg * p.em) / p.ig;
-    const next = (ep / p.eci) * fcgp;
+    const next = (ep / p.eci) * fcgp(force, p.ag, p.ig, p.em, p.mg);
     if (Math.abs(next - loss) < 1e-9) return next;
     loss = next;
   }

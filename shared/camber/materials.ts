@@ -72,3 +72,15 @@ export const STRAND_AREA_IN2: Record<string, number> = {
   '0.6': 0.217,
   '0.7': 0.294,
 };
+
+/**
+ * Transfer length of strand: AASHTO LRFD 5.9.4.3.1 ℓt = 60·db [MEM-H]; ACI 318-19 §22.5.9.1 ℓt = 50·db
+ * for strand [MEM-M on the clause number].
+ */
+export const transferLengthIn = (rule: 'aashto' | 'aci' | 'none', dbIn: number): number => (rule === 'aashto' ? 60 * dbIn : rule === 'aci' ? 50 * dbIn : 0);
+
+/** ACI 318-19 §21.2.3: ℓtr = (fse/3000)·db, fse in psi. [MEM-M] */
+export const transferLengthAciStress = (fsePsi: number, dbIn: number): number => (fsePsi / 3000) * dbIn;
+
+/** ACI 318-19 §25.4.8.1: ℓd = (fse/3000)·db + ((fps − fse)/1000)·db, psi. [MEM-H] */
+export const developmentLengthAci = (fsePsi: number, fpsPsi: number, dbIn: number): number => (fsePsi / 3000) * dbIn + ((fpsPsi - fsePsi) / 1000) * dbIn;

@@ -2,7 +2,7 @@
 // section, moduli, strand groups with forces after transfer, and the creep/shrinkage model.
 import { prestressCamber, selfWeightDeflection, type StrandGroupModel } from './elastic';
 import { elasticShorteningLoss, relaxationLoss } from './losses';
-import { FPU_KSI, STRAND_AREA_IN2, modulusKsi, strengthRatioAci209 } from './materials';
+import { FPU_KSI, STRAND_AREA_IN2, modulusKsi, strengthRatioAci209, transferLengthIn } from './materials';
 import { aashtoModel } from './models/aashto';
 import { aci209Model } from './models/aci209';
 import { en1992Model } from './models/en1992';
@@ -85,7 +85,7 @@ export function prepareMember(v: PredictParsed): PreparedMember {
   const groupsRaw = v.strands.map((g) => {
     const area = g.area !== undefined ? (si ? g.area / (MM_PER_IN * MM_PER_IN) : g.area) : strandAreaFromDiameter(dim(g.diameter!));
     const db = g.diameter !== undefined ? dim(g.diameter) : diameterFromArea(area);
-    const lt = v.transferLength === 'aashto' ? 60 * db : v.transferLength === 'aci' ? 50 * db : 0; // AASHTO 5.9.4.3.1; ACI 318-19 §22.5.9.1 [MEM]
+    const lt = transferLengthIn(v.transferLength, db);
     return {
       aps: g.count * area,
       fpj: g.jackingStress !== undefined ? stress(g.jackingStress) : v.prestress.jackingStress !== undefined ? stress(v.prestress.jackingStress) : 0.75 * FPU_KSI,

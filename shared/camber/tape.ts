@@ -25,11 +25,12 @@ const VULGAR: Record<string, string> = {
 };
 
 function normalise(raw: string): string {
-  let s = raw.normalize('NFKC').trim();
-  // NFKC turns "⅜" into "3⁄8" (fraction slash) and primes into ′ ″: fold them to ASCII.
+  // Vulgar fractions first: NFKC would turn "1⅜" into "13⁄8".
+  let s = raw;
+  for (const [glyph, frac] of Object.entries(VULGAR)) s = s.replaceAll(glyph, ` ${frac}`);
+  s = s.normalize('NFKC').trim();
   s = s.replace(/\u2044/g, '/').replace(/[\u2212\u2013\u2012]/g, '-');
   s = s.replace(/[\u2032\u2019]/g, "'").replace(/[\u2033\u201d]|''/g, '"');
-  for (const [glyph, frac] of Object.entries(VULGAR)) s = s.replaceAll(glyph, ` ${frac}`);
   return s.replace(/\s+/g, ' ').trim();
 }
 
