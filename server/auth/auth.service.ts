@@ -2,6 +2,7 @@ import type { DataSource } from 'typeorm';
 import { ERROR_CODES } from '#shared/api/errors';
 import type { Config } from '../config';
 import { audit } from '../audit/audit.service';
+import { rowsOf } from '../db/rows';
 import { AppError } from '../http/errors';
 import { escapeHtml, type Mailer } from '../mail/mailer';
 import { hashPassword, verifyPassword } from './password';
@@ -45,7 +46,7 @@ export async function resetPassword(d: AuthDeps, token: string, password: string
   return d.ds.transaction(async (tx) => {
     const t = await consumeEmailToken(tx, token);
     if (!t) throw new AppError(400, 'token_invalid', 'this link has expired or was already used; ask for a new one', { token: ['expired or already used'] });
-    const rows: Array<{ plant_id: string }> = await tx.query(`UPDATE app_user SET password_hash = $2, updated_at = now() WHERE id = $1 RETURNING plant_id`, [t.userId, hash]);
+    const rows = rowsOf<{ plant_id: string }>(await tx.query(`UPDATE app_user SET password_hash = $2, updated_at = now() WHERE id = $1 RETURNING plant_id`, [t.userId, hash]));
     await audit(tx, { plantId: rows[0]?.plant_id ?? null, userId: t.userId, action: t.kind === 'invite' ? 'accept-invite' : 'reset-password', entity: 'user', entityId: t.userId });
     return t.userId;
   });

@@ -1,5 +1,6 @@
 import { createHash, randomBytes } from 'node:crypto';
 import type { DataSource, EntityManager } from 'typeorm';
+import { rowsOf } from '../db/rows';
 
 export const TOKEN_TTL_MS = { reset: 60 * 60_000, invite: 7 * 24 * 60 * 60_000 } as const;
 
@@ -19,9 +20,8 @@ export async function createEmailToken(db: DataSource | EntityManager, userId: s
 
 /** Marks the token used and returns its user, or null when unknown, used or expired. */
 export async function consumeEmailToken(db: EntityManager, token: string): Promise<{ userId: string; kind: 'reset' | 'invite' } | null> {
-  const rows: Array<{ user_id: string; kind: 'reset' | 'invite' }> = await db.query(
-    `UPDATE auth_token SET used_at = now() WHERE token_hash = $1 AND used_at IS NULL AND expires_at > now() RETURNING user_id, kind`,
-    [hashToken(token)],
+  const rows = rowsOf<{ user_id: string; kind: 'reset' | 'invite' }>(
+    await db.query(`UPDATE auth_token SET used_at = now() WHERE token_hash = $1 AND used_at IS NULL AND expires_at > now() RETURNING user_id, kind`, [hashToken(token)]),
   );
   const r = rows[0];
   return r ? { userId: r.user_id, kind: r.kind } : null;

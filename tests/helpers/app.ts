@@ -1,3 +1,4 @@
+import jwt from 'jsonwebtoken';
 import type { Express } from 'express';
 import pino from 'pino';
 import request from 'supertest';
@@ -15,7 +16,7 @@ export async function testApp(overrides: Record<string, string> = {}): Promise<T
   const cfg = loadConfig({ ...process.env, NODE_ENV: 'test', BCRYPT_COST: '10', LOG_LEVEL: 'silent', ...overrides });
   const ds = createDataSource(cfg.databaseUrl, 4);
   await ds.initialize();
-  const deps: Deps = { ds, cfg, mailer: createMailer(cfg), log: pino({ level: 'silent' }) };
+  const deps: Deps = { ds, cfg, mailer: createMailer(cfg), log: pino({ level: process.env.TEST_LOG ?? 'silent' }) };
   const app = createApp(deps, null);
   return { app, ds, cfg, deps, close: () => ds.destroy() };
 }
@@ -30,4 +31,11 @@ export async function signIn(app: Express, email: string, password: string): Pro
   const cookies = ([] as string[]).concat(res.headers['set-cookie'] ?? []);
   const csrf = cookies.map((c) => /^cw_csrf=([^;]+)/.exec(c)?.[1]).find(Boolean) ?? '';
   return { agent, csrf, user: { id: res.body.id, plantId: res.body.plantId } };
+}
+
+/** Cookie and CSRF header of a session for a user, minted as the server does (for wide matrix tests). */
+export function sessionHeaders(cfg: Config, userId: string): Record<string, string> {
+  const csrf = `csrf-${userId}`;
+  const token = jwt.sign({ csrf }, cfg.jwtSecret, { algorithm: 'HS256', subject: userId, issuer: 'crownwatch', audience: 'crownwatch-web', expiresIn: 600 });
+  return { Cookie: `cw_session=${token}; cw_csrf=${csrf}`, 'X-CSRF-Token': csrf };
 }

@@ -1,0 +1,57 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { signIn, testApp, type TestApp, type Session } from '../helpers/app';
+import { buildDesign, buildJob, buildPiece, buildPlant, buildUser, PASSWORD } from '../helpers/factories';
+
+let t: TestApp;
+let engineer: Session;
+let viewer: Session;
+let jobA: string;
+beforeAll(async () => {
+  t = await testApp();
+  const plant = await buildPlant(t.ds);
+  jobA = (await buildJob(t.ds, plant.id)).id;
+  const jobB = (await buildJob(t.ds, plant.id)).id;
+  const dt = (await buildDesign(t.ds, plant.id, 'DT28-60')).id;
+  const hc = (await buildDesign(t.ds, plant.id, 'HC8-30')).id;
+  for (const [mark, job, design, status, cast] of [
+    ['DT-104', jobA, dt, 'in_storage', '2026-10-03'], ['DT-105', jobA, dt, 'hold', '2026-10-01'], ['DT 110', jobB, dt, 'shipped', '2026-09-01'],
+    ['HC-201', jobB, hc, 'in_storage', '2026-10-02'], ['HC-202', jobB, hc, 'in_storage', '2026-10-05'],
+  ] as const) await buildPiece(t.ds, plant.id, { mark, jobId: job, designId: design, status, castDate: cast });
+  const e = await buildUser(t.ds, plant.id, 'engineer');
+  const v = await buildUser(t.ds, plant.id, 'viewer', { jobId: jobA });
+  engineer = await signIn(t.app, e.email, PASSWORD);
+  viewer = await signIn(t.app, v.email, PASSWORD);
+});
+afterAll(() => t.close());
+
+const marks = (body: { items: Array<{ mark: string }> }): string[] => body.items.map((i) => i.mark);
+
+describe('GET /api/pieces', () => {
+  it('when searching by mark, then spaces, dashes and case do not matter', async () => {
+    expect(marks((await engineer.agent.get('/api/pieces?q=dt104')).body)).toEqual(['DT-104']);
+    expect(marks((await engineer.agent.get('/api/pieces?q=DT-110')).body)).toEqual(['DT 110']);
+    expect(marks((await engineer.agent.get('/api/pieces?q=hc 20')).body)).toEqual(['HC-201', 'HC-202']);
+  });
+  it('when filtering by status, product type and job, then only matching pieces come back', async () => {
+    expect(marks((await engineer.agent.get('/api/pieces?status=hold')).body)).toEqual(['DT-105']);
+    expect(marks((await engineer.agent.get('/api/pieces?productType=hollow-core')).body)).toEqual(['HC-201', 'HC-202']);
+    expect(marks((await engineer.agent.get(`/api/pieces?jobId=${jobA}`)).body)).toEqual(['DT-104', 'DT-105']);
+  });
+  it('when sorting and paging, then the server orders and counts', async () => {
+    const res = await engineer.agent.get('/api/pieces?sort=castDate&dir=desc&pageSize=2&page=1');
+    expect(marks(res.body)).toEqual(['HC-202', 'DT-104']);
+    expect(res.body.total).toBe(5);
+    const p3 = await engineer.agent.get('/api/pieces?sort=castDate&dir=desc&pageSize=2&page=3');
+    expect(marks(p3.body)).toEqual(['DT 110']);
+  });
+  it('when the query is malformed, then 400 names the query field', async () => {
+    const res = await engineer.agent.get('/api/pieces?pageSize=5000&sort=colour');
+    expect(res.status).toBe(400);
+    expect(Object.keys(res.body.fieldErrors)).toEqual(expect.arrayContaining(['query.pageSize', 'query.sort']));
+  });
+  it('when a viewer lists pieces, then only the pieces of their job come back', async () => {
+    expect(marks((await viewer.agent.get('/api/pieces')).body)).toEqual(['DT-104', 'DT-105']);
+    const jobs = (await viewer.agent.get('/api/jobs')).body as Array<{ id: string }>;
+    expect(jobs.map((j) => j.id)).toEqual([jobA]);
+  });
+});

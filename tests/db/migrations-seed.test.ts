@@ -1,0 +1,69 @@
+import { randomUUID } from 'node:crypto';
+import pg from 'pg';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createDataSource } from '#server/db/data-source';
+import { migrate, revertLast } from '#server/ops/database';
+import { seedDemo } from '#seed/demo';
+
+// Runs against a fresh, empty database made for this file and dropped afterwards.
+const adminUrl = (): string => {
+  const u = new URL(process.env.DATABASE_URL!);
+  u.pathname = '/postgres';
+  return u.toString();
+};
+const name = `cw_fresh_${randomUUID().slice(0, 8)}`;
+const url = (() => {
+  const u = new URL(process.env.DATABASE_URL!);
+  u.pathname = `/${name}`;
+  return u.toString();
+})();
+
+async function admin(sql: string): Promise<void> {
+  const c = new pg.Client({ connectionString: adminUrl() });
+  await c.connect();
+  await c.query(sql);
+  await c.end();
+}
+
+beforeAll(() => admin(`CREATE DATABASE ${name}`));
+afterAll(() => admin(`DROP DATABASE IF EXISTS ${name} WITH (FORCE)`));
+
+const tables = async (): Promise<string[]> => {
+  const c = new pg.Client({ connectionString: url });
+  await c.connect();
+  const r = await c.query(`SELECT table_name FROM information_schema.tables WHERE table_schema = 'public' AND table_name <> 'migrations' ORDER BY 1`);
+  await c.end();
+  return r.rows.map((x) => x.table_name as string);
+};
+
+describe('migrations and the demo scenario on an empty database', () => {
+  it('when migrated up, down and up again, then the schema comes and goes cleanly', async () => {
+    expect(await migrate(url)).toEqual(['Initial1796169600000']);
+    expect(await tables()).toEqual(['app_user', 'audit_event', 'auth_token', 'decision', 'job', 'member_design', 'piece', 'plant', 'reading']);
+    await revertLast(url);
+    expect(await tables()).toEqual([]);
+    expect(await migrate(url)).toEqual(['Initial1796169600000']);
+    expect(await migrate(url)).toEqual([]);
+  });
+  it('when the demo scenario is loaded twice, then the second run adds nothing', async () => {
+    const ds = createDataSource(url, 2);
+    await ds.initialize();
+    try {
+      const counts = async (): Promise<Record<string, number>> => {
+        const out: Record<string, number> = {};
+        for (const t of ['plant', 'job', 'app_user', 'member_design', 'piece', 'reading']) out[t] = Number((await ds.query(`SELECT count(*) FROM ${t}`))[0].count);
+        return out;
+      };
+      const now = new Date('2026-12-01T12:00:00Z');
+      expect((await seedDemo(ds, { now, bcryptCost: 10 })).created).toBe(true);
+      const first = await counts();
+      expect(first.piece).toBe(150);
+      expect(first.app_user).toBe(5);
+      expect(first.reading).toBeGreaterThan(400);
+      expect((await seedDemo(ds, { now, bcryptCost: 10 })).created).toBe(false);
+      expect(await counts()).toEqual(first);
+    } finally {
+      await ds.destroy();
+    }
+  });
+});
