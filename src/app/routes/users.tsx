@@ -1,7 +1,7 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
-import { useForm } from 'react-hook-form';
+import { useForm, useWatch } from 'react-hook-form';
 import { ROLE_LABELS, ROLES, type Role } from '#shared/api/roles';
 import { inviteSchema, type InviteInput } from '#shared/api/users';
 import { Field, FormError } from '../../components/ui/field';
@@ -17,7 +17,7 @@ export function UsersPage() {
   const { data: jobs = [] } = useQuery(jobsQuery);
   const [sent, setSent] = useState<string | null>(null);
   const form = useForm<InviteInput>({ resolver: zodResolver(inviteSchema), defaultValues: { role: 'inspector' } });
-  const role = form.watch('role');
+  const role = useWatch({ control: form.control, name: 'role' });
   const invite = useMutation({
     mutationFn: inviteUser,
     onSuccess: async (u) => {

@@ -19,6 +19,7 @@ export function ReadingsTable({ readings, unit, timeZone }: { readings: ReadingD
             <th className="px-3 py-2">Supports</th>
             <th className="px-3 py-2">Sky</th>
             <th className="px-3 py-2">By</th>
+            <th className="px-3 py-2">Note</th>
           </tr>
         </thead>
         <tbody>
@@ -39,6 +40,10 @@ export function ReadingsTable({ readings, unit, timeZone }: { readings: ReadingD
               <td className="px-3 py-2">{label(SUPPORT_LABELS, r.support)}</td>
               <td className="px-3 py-2">{label(SKY_LABELS, r.sky)}</td>
               <td className="px-3 py-2">{r.takenBy}</td>
+              <td className="px-3 py-2">
+                {r.correctionReason ? `Correction: ${r.correctionReason}. ` : ''}
+                {r.note ?? ''}
+              </td>
             </tr>
           ))}
         </tbody>

@@ -1,0 +1,30 @@
+import { expect, test } from '@playwright/test';
+import { E2E_MAIL_WEB_PORT } from './playwright.config';
+import { signInAs } from './helpers';
+
+test('an admin invites a user and the invitation e-mail arrives', async ({ page, request }) => {
+  const email = `new-engineer-${Date.now()}@ridgeback.example`;
+  await signInAs(page, 'admin@ridgeback.example');
+  await page.getByRole('link', { name: 'Users' }).click();
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Name').fill('Alex Planner');
+  await page.getByLabel('Role', { exact: true }).selectOption('engineer');
+  await page.getByRole('button', { name: 'Send the invitation' }).click();
+  await expect(page.getByRole('status')).toContainText(`Invitation sent to ${email}`);
+  await expect(page.getByRole('row').filter({ hasText: email })).toContainText('Invited');
+
+  await expect
+    .poll(async () => {
+      const mails = (await (await request.get(`http://127.0.0.1:${E2E_MAIL_WEB_PORT}/api/email`)).json()) as Array<{ subject: string; to: Array<{ address: string }> }>;
+      return mails.find((m) => m.to.some((t) => t.address === email))?.subject ?? null;
+    })
+    .toMatch(/invited to Crownwatch/);
+});
+
+test('a viewer signs in and sees only the pieces of their job', async ({ page }) => {
+  await signInAs(page, 'viewer@ridgeback.example');
+  const jobCells = page.getByRole('table').getByRole('row').locator('td:nth-child(2)');
+  await expect(jobCells.first()).toHaveText('J-2620');
+  for (const text of await jobCells.allTextContents()) expect(text).toBe('J-2620');
+  await expect(page.getByRole('link', { name: 'Users' })).toHaveCount(0);
+});

@@ -1,0 +1,31 @@
+import { expect, test } from '@playwright/test';
+import { signInAs } from './helpers';
+
+test('an inspector finds a piece, logs a reading and sees it in the readings table', async ({ page }) => {
+  await signInAs(page, 'inspector@ridgeback.example');
+  await page.getByLabel('Status').selectOption('in_storage');
+  await page.getByLabel('Find by mark').fill('dt-1');
+  const first = page.getByRole('table').getByRole('link').first();
+  const mark = (await first.textContent())!;
+  await first.click();
+  await expect(page.getByRole('heading', { name: mark, level: 1 })).toBeVisible();
+
+  await page.getByLabel(/^Camber/).fill('1-3/8"');
+  await expect(page.getByText('Understood as 1 3/8 in = 34.9 mm')).toBeVisible();
+  await page.getByLabel('Sky').selectOption('overcast');
+  await page.getByLabel('Note').fill('e2e check north stem');
+  await page.getByRole('button', { name: 'Save the reading' }).click();
+  await expect(page.getByRole('status').filter({ hasText: 'Reading saved' })).toBeVisible();
+  const row = page.getByRole('row').filter({ hasText: 'e2e check north stem' });
+  await expect(row).toHaveCount(1);
+  await expect(row).toContainText('1 3/8 in');
+  await expect(row).toContainText('Dana Ortiz');
+});
+
+test('a reading the parser cannot understand is refused with the reason, before anything is sent', async ({ page }) => {
+  await signInAs(page, 'inspector@ridgeback.example');
+  await page.getByLabel('Status').selectOption('in_storage');
+  await page.getByRole('table').getByRole('link').first().click();
+  await page.getByLabel(/^Camber/).fill('1 3/7');
+  await expect(page.getByText(/sixteenths, not \/7/)).toBeVisible();
+});
