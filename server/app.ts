@@ -60,7 +60,7 @@ export function createApp(d: Deps, clientDir: string | null = CLIENT_DIR): Expre
   if (clientDir && existsSync(clientDir)) {
     app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
     // The client routes in the browser: every other GET gets the app shell.
-    app.get(/^\/(?!api\/).*/, (_req, res) => res.sendFile(resolve(clientDir, 'index.html')));
+    app.get(/^\/(?!api\/).*/, (_req, res) => res.sendFile('index.html', { root: clientDir }));
   }
   app.use(errorMiddleware);
   return app;

@@ -46,6 +46,10 @@ export const errorMiddleware: ErrorRequestHandler = (err, req, res, _next) => {
   if (bp.type === 'entity.too.large') return send(413, { code: 'payload_too_large', message: 'the request body is too large' });
   if (bp.type === 'entity.parse.failed') return send(400, { code: ERROR_CODES.validation, message: 'the request body is not valid JSON' });
   if (bp.type && bp.status && bp.status < 500) return send(bp.status, { code: ERROR_CODES.validation, message: 'the request body could not be read' });
+  const httpStatus = (err as { status?: number }).status;
+  if (httpStatus && httpStatus >= 400 && httpStatus < 500) {
+    return send(httpStatus, { code: httpStatus === 404 ? ERROR_CODES.notFound : ERROR_CODES.validation, message: httpStatus === 404 ? 'not found' : 'the request could not be handled' });
+  }
   const pgErr = err as PgError;
   if (pgErr.code === '23505') return send(409, { code: ERROR_CODES.conflict, message: 'a record with the same key already exists' });
   if (pgErr.code === '22P02' || pgErr.code === '22021') return send(400, { code: ERROR_CODES.validation, message: 'a value has the wrong form' });

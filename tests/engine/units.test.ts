@@ -4,7 +4,7 @@ import { describe, expect, it } from 'vitest';
 import { KG_M3_PER_PCF, KN_PER_KIP, MPA_PER_PSI, in4ToMm4, inToMm, ksiToMpa, mmToIn, mpaToKsi, mToIn, inToM } from '#shared/camber/units';
 
 // Outside reference: mathjs 15.2.0 unit conversion (engineering reference §8.3 and check values I1–I2).
-const math = create(all);
+const math = create(all ?? {});
 math.createUnit('ksi', '1000 psi');
 const conv = (v: number, from: string, to: string): number => math.unit(v, from).toNumber(to);
 // mathjs rounds some definitions (its kip is 4.4482216 kN), so agreement is asserted to 1e-7 relative.
