@@ -29,7 +29,7 @@ export const DEMO_DESIGNS: DemoDesign[] = [
       units: 'us', length: 30, productType: 'hollow-core',
       section: { shape: 'hollow-core', width: 48, height: 8, voidCount: 6, voidDiameter: 5.5 },
       concrete: { fci: 3.8, fc: 6.0, modulus: 'aci318', ...steam },
-      strands: [{ count: 7, area: 0.153, profile: 'straight', eccMid: 2.75 }],
+      strands: [{ count: 5, area: 0.153, profile: 'straight', eccMid: 2.75 }],
       supports: { storage: [{ fromAgeDays: 1, overhang: 1 }] },
       method: 'aashto',
     },

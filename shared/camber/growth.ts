@@ -54,17 +54,29 @@ export function timelineOf(m: PreparedMember): Timeline {
 export const aaemCamber = (dPs: number, dSw: number, phi: number, lossRatio: number, chi = CHI): number =>
   dPs * (1 + phi) - dPs * lossRatio * (1 + chi * phi) - dSw * (1 + phi);
 
+const lossConstants = new WeakMap<PreparedMember, { fc: number; k: number }>();
+
+/** fcgp at midspan after transfer (AASHTO 5.9.3.2.3a) and Kid (5.9.3.4.2a): constant for a member. */
+function lossConstantsOf(m: PreparedMember): { fc: number; k: number } {
+  let c = lossConstants.get(m);
+  if (!c) {
+    const { area: ag, inertia: ig } = m.section;
+    const mg = (m.selfWeightKipPerIn * m.lengthIn ** 2) / 8;
+    c = {
+      fc: fcgp(m.forceAfterRelease, ag, ig, m.eccMidAvg, mg),
+      k: kid({ aps: m.strandArea, ag, ig, epg: m.eccMidAvg, eci: m.eci, creepFinal: m.model.creep(FINAL_AGE_DAYS, m.releaseAge) }),
+    };
+    lossConstants.set(m, c);
+  }
+  return c;
+}
+
 /** Creep, shrinkage and relaxation loss after transfer as a fraction of the force after transfer. */
 export function lossFraction(m: PreparedMember, t: number): number {
   if (t <= m.releaseAge) return 0;
   const ti = m.releaseAge;
-  const { area: ag, inertia: ig } = m.section;
-  const e = m.eccMidAvg;
   const p = m.forceAfterRelease;
-  const mg = (m.selfWeightKipPerIn * m.lengthIn ** 2) / 8;
-  // fcgp: concrete stress at the strand centroid at midspan after transfer (AASHTO 5.9.3.2.3a).
-  const fc = fcgp(p, ag, ig, e, mg);
-  const k = kid({ aps: m.strandArea, ag, ig, epg: e, eci: m.eci, creepFinal: m.model.creep(FINAL_AGE_DAYS, ti) });
+  const { fc, k } = lossConstantsOf(m);
   const sh = m.model.shrinkage(t) * EP_KSI * k; // ΔfpSR, Eq. 5.9.3.4.2a-1
   const cr = (EP_KSI / m.eci) * Math.max(0, fc) * m.model.creep(t, ti) * k; // ΔfpCR, Eq. 5.9.3.4.2b-1
   const re = relaxationLoss(m.fpj, t) - relaxationLoss(m.fpj, ti);

@@ -143,6 +143,17 @@ export function prepareMember(v: PredictParsed): PreparedMember {
   const model =
     v.method === 'aashto' ? aashtoModel(mi) : v.method === 'mc2010' ? mc2010Model(mi) : v.method === 'en1992' ? en1992Model(mi) : aci209Model(mi);
 
+  // Deflection is linear in the load: one integration per support layout, reused for every age.
+  const perLayout = new Map<number, number>();
+  const unitDeflection = (overhang: number): number => {
+    let d = perLayout.get(overhang);
+    if (d === undefined) {
+      d = selfWeightDeflection(1, lengthIn, overhang, eci, section.inertia);
+      perLayout.set(overhang, d);
+    }
+    return d;
+  };
+
   return {
     input: v,
     lengthIn,
@@ -166,8 +177,8 @@ export function prepareMember(v: PredictParsed): PreparedMember {
     releaseAge,
     model,
     dPs: prestressCamber(groups, lengthIn, eci, section.inertia),
-    dSw: (a) => selfWeightDeflection(selfWeightKipPerIn, lengthIn, a, eci, section.inertia),
-    dLoad: (q, a) => selfWeightDeflection(q, lengthIn, a, eci, section.inertia),
+    dSw: (a) => unitDeflection(a) * selfWeightKipPerIn,
+    dLoad: (q, a) => unitDeflection(a) * q,
   };
 }
 

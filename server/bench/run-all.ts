@@ -1,0 +1,11 @@
+// `npm run bench`: every benchmark in turn; each prints its own figures.
+import { spawnSync } from 'node:child_process';
+
+const benches = ['server/bench/engine.bench.ts'];
+let failed = 0;
+for (const b of benches) {
+  console.log(`\n━━ ${b} ━━`);
+  const r = spawnSync('node_modules/.bin/tsx', [b], { stdio: 'inherit' });
+  if (r.status !== 0) failed++;
+}
+process.exit(failed ? 1 : 0);
