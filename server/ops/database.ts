@@ -2,10 +2,14 @@ import type { Config } from '../config';
 import { createDataSource } from '../db/data-source';
 import { ensureDatabase, ensureLocalPostgres } from './postgres';
 
-/** The database of this config exists and is reachable: the local cluster unless DATABASE_URL is set. */
-export async function prepareDatabase(cfg: Config): Promise<void> {
-  if (!cfg.DATABASE_URL) await ensureLocalPostgres(cfg.PG_PORT);
+/**
+ * The database of this config exists and is reachable: the local cluster unless DATABASE_URL is set.
+ * Returns true when this call started the local cluster (so a one-off run can stop it again).
+ */
+export async function prepareDatabase(cfg: Config): Promise<boolean> {
+  const started = cfg.DATABASE_URL ? false : await ensureLocalPostgres(cfg.PG_PORT);
   await ensureDatabase(cfg.databaseUrl);
+  return started;
 }
 
 export async function migrate(url: string): Promise<string[]> {

@@ -43,9 +43,9 @@ async function isUp(port: number): Promise<boolean> {
   }
 }
 
-/** Makes sure the local cluster exists and runs on `port`. */
-export async function ensureLocalPostgres(port: number): Promise<void> {
-  if (await isUp(port)) return;
+/** Makes sure the local cluster exists and runs on `port`; true when this call started it. */
+export async function ensureLocalPostgres(port: number): Promise<boolean> {
+  if (await isUp(port)) return false;
   const bin = ensureBinaries();
   mkdirSync(CLUSTER_DIR, { recursive: true, mode: 0o700 });
   if (isRoot()) chownByName(CLUSTER_DIR, 'postgres');
@@ -60,6 +60,7 @@ export async function ensureLocalPostgres(port: number): Promise<void> {
     '-o', `-p ${port} -c listen_addresses=127.0.0.1 -c unix_socket_directories=${CLUSTER_DIR}`, 'start',
   ]);
   if (!(await isUp(port))) throw new Error(`PostgreSQL did not answer on 127.0.0.1:${port}; see ${CLUSTER_DIR}/server.log`);
+  return true;
 }
 
 export function stopLocalPostgres(): void {

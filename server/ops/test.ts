@@ -5,6 +5,7 @@ import pg from 'pg';
 import { loadConfig } from '../config';
 import { seedDemo } from '#seed/demo';
 import { migrate, prepareDatabase, withDataSource } from './database';
+import { stopLocalPostgres } from './postgres';
 import { aptInstall, exists, gate } from './system';
 
 const withDb = (url: string, name: string): string => {
@@ -28,7 +29,7 @@ async function freshE2eDatabase(url: string): Promise<void> {
 async function main(): Promise<number> {
   process.env.NODE_ENV = 'test';
   const cfg = loadConfig({ ...process.env, PG_DATABASE: 'crownwatch_test' });
-  await prepareDatabase(cfg);
+  const startedHere = await prepareDatabase(cfg);
   const unitUrl = cfg.databaseUrl;
   const e2eUrl = withDb(cfg.databaseUrl, `${new URL(cfg.databaseUrl).pathname.slice(1)}_e2e`);
   if (!exists('/usr/bin/chromium')) aptInstall(['chromium'], "Debian's chromium is needed for the end-to-end tests");
@@ -53,6 +54,8 @@ async function main(): Promise<number> {
   for (const [name, code] of results) console.log(`${code === 0 ? 'ok  ' : 'FAIL'}  ${name}`);
   const failed = results.filter(([, c]) => c !== 0).length;
   console.log(`gates: ${results.length - failed} passed, ${failed} failed`);
+  // A test run leaves the machine as it found it: the cluster it started, it stops.
+  if (startedHere) stopLocalPostgres();
   return failed === 0 ? 0 : 1;
 }
 
