@@ -1,4 +1,4 @@
-import { expect, type Page } from '@playwright/test';
+import { expect, type APIRequestContext, type Page } from '@playwright/test';
 
 export const DEMO_PASSWORD = 'camber-demo-2026';
 
@@ -7,5 +7,13 @@ export async function signInAs(page: Page, email: string): Promise<void> {
   await page.getByLabel('E-mail').fill(email);
   await page.getByLabel('Password').fill(DEMO_PASSWORD);
   await page.getByRole('button', { name: 'Sign in' }).click();
-  await expect(page.getByRole('heading', { name: 'Pieces' })).toBeVisible();
+  await expect(page.getByRole('button', { name: 'Sign out' })).toBeVisible();
+}
+
+/** Readings of a piece as the server has them, read through the API with its own session. */
+export async function serverReadings(request: APIRequestContext, pieceId: string): Promise<Array<{ note: string | null; valueMm: number }>> {
+  const login = await request.post('/api/auth/login', { data: { email: 'qc@ridgeback.example', password: DEMO_PASSWORD } });
+  expect(login.ok()).toBe(true);
+  const res = await request.get(`/api/pieces/${pieceId}`);
+  return (await res.json()).readings;
 }

@@ -1,8 +1,11 @@
 import { expect, test } from '@playwright/test';
 import { signInAs } from './helpers';
 
-test('an inspector finds a piece, logs a reading and sees it in the readings table', async ({ page }) => {
+const note = `e2e check north stem ${Date.now()}`;
+
+test('an inspector finds a piece in the office list, logs a reading and sees it in the readings table', async ({ page }) => {
   await signInAs(page, 'inspector@ridgeback.example');
+  await page.getByRole('link', { name: 'Pieces' }).click();
   await page.getByLabel('Status').selectOption('in_storage');
   await page.getByLabel('Find by mark').fill('dt-1');
   const first = page.getByRole('table').getByRole('link').first();
@@ -12,11 +15,11 @@ test('an inspector finds a piece, logs a reading and sees it in the readings tab
 
   await page.getByLabel(/^Camber/).fill('1-3/8"');
   await expect(page.getByText('Understood as 1 3/8 in = 34.9 mm')).toBeVisible();
-  await page.getByLabel('Sky').selectOption('overcast');
-  await page.getByLabel('Note').fill('e2e check north stem');
+  await page.getByRole('group', { name: 'Sky' }).getByText('Overcast').click();
+  await page.getByLabel('Note').fill(note);
   await page.getByRole('button', { name: 'Save the reading' }).click();
-  await expect(page.getByRole('status').filter({ hasText: 'Reading saved' })).toBeVisible();
-  const row = page.getByRole('row').filter({ hasText: 'e2e check north stem' });
+  await expect(page.getByTestId('queue-status')).toHaveText('✓ All readings sent');
+  const row = page.getByRole('row').filter({ hasText: note });
   await expect(row).toHaveCount(1);
   await expect(row).toContainText('1 3/8 in');
   await expect(row).toContainText('Dana Ortiz');
@@ -24,6 +27,7 @@ test('an inspector finds a piece, logs a reading and sees it in the readings tab
 
 test('a reading the parser cannot understand is refused with the reason, before anything is sent', async ({ page }) => {
   await signInAs(page, 'inspector@ridgeback.example');
+  await page.getByRole('link', { name: 'Pieces' }).click();
   await page.getByLabel('Status').selectOption('in_storage');
   await page.getByRole('table').getByRole('link').first().click();
   await page.getByLabel(/^Camber/).fill('1 3/7');

@@ -2,6 +2,7 @@ import type { DataSource } from 'typeorm';
 import { predictParsed } from '#shared/camber/predict';
 import { predictInputSchema } from '#shared/camber/schema';
 import { formatSixteenths, parseTape } from '#shared/camber/tape';
+import { DEFAULT_READING_AGES } from '#shared/yard/schedule';
 import { hashPassword } from '#server/auth/password';
 import { DEMO_DESIGNS, DEMO_JOBS, DEMO_PASSWORD, DEMO_PLANT, DEMO_USERS } from './designs';
 import { seeded } from './random';
@@ -18,8 +19,6 @@ const PLAN: PiecePlan[] = [
   { design: 'DT28-60', job: 'J-2618', count: 16, prefix: 'DT-', start: 601 },
   { design: 'BG54-110', job: 'J-2620', count: 30, prefix: 'G-', start: 401 },
 ];
-/** Ages (days after casting) at which the plant's schedule asks for a reading; release is the first. */
-export const DEMO_READING_AGES = [7, 14, 28, 56, 90];
 /** Every 17th piece creeps far more than its design predicts: the drifting pieces of the scenario. */
 export const isDriftingIndex = (i: number): boolean => i % 17 === 5;
 
@@ -73,8 +72,10 @@ export async function seedDemo(ds: DataSource, opts: { now?: Date; bcryptCost?: 
            VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12) RETURNING id`,
           [plantId, jobIds.get(plan.job), designIds.get(plan.design), `${plan.prefix}${plan.start + k}`, `Bed ${1 + (index % 4)}`, isoDate(cast), isoDate(release), isoDate(ship), isoDate(erection), bay, inBays ? (k % 6) + 1 : null, status],
         );
-        const lastDay = Math.min(now.getTime(), ship.getTime());
-        const ages = [releaseAge, ...DEMO_READING_AGES].filter((a) => cast.getTime() + a * DAY <= lastDay);
+        // Every fourth piece still waits for its latest scheduled reading if that fell in the last week.
+        const waiting = index % 4 === 1 ? 7 * DAY : 0;
+        const lastDay = Math.min(now.getTime() - waiting, ship.getTime());
+        const ages = [releaseAge, ...DEFAULT_READING_AGES].filter((a) => cast.getTime() + a * DAY <= lastDay);
         if (ages.length === 0) continue;
         const curve = predictParsed(predictInputSchema.parse({ ...design.spec, agesDays: ages }));
         const elasticFactor = rnd.normal(0.95, 0.06);

@@ -17,13 +17,14 @@ import { pieceRoutes } from './pieces/pieces.routes';
 import { readingRoutes } from './readings/readings.routes';
 import { systemRoutes } from './system.routes';
 import { userRoutes } from './users/users.routes';
+import { yardRoutes } from './yard/yard.routes';
 
 export const CLIENT_DIR = resolve(ROOT, '.build', 'client');
 
 /** The whole route table: the API, the OpenAPI document and the role matrix test all read it. */
 export function buildRoutes(d: Deps): RouteDef[] {
   const table: RouteDef[] = [];
-  table.push(...authRoutes(d), ...userRoutes(d), ...pieceRoutes(d), ...readingRoutes(d), ...camberRoutes(), ...systemRoutes(d, () => table));
+  table.push(...authRoutes(d), ...userRoutes(d), ...pieceRoutes(d), ...readingRoutes(d), ...yardRoutes(d), ...camberRoutes(), ...systemRoutes(d, () => table));
   return table;
 }
 
@@ -33,7 +34,15 @@ export function createApp(d: Deps, clientDir: string | null = CLIENT_DIR): Expre
   app.use(
     helmet({
       // Plain HTTP on a plant intranet must still load its own assets (helmet issues #429/#480).
-      contentSecurityPolicy: { directives: { 'img-src': ["'self'", 'data:', 'blob:'], 'upgrade-insecure-requests': null } },
+      contentSecurityPolicy: {
+        directives: {
+          'img-src': ["'self'", 'data:', 'blob:'],
+          // The QR reader compiles its WebAssembly module; nothing else is evaluated.
+          'script-src': ["'self'", "'wasm-unsafe-eval'"],
+          'media-src': ["'self'", 'blob:'],
+          'upgrade-insecure-requests': null,
+        },
+      },
       strictTransportSecurity: d.cfg.NODE_ENV === 'production',
     }),
   );

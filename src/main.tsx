@@ -5,8 +5,18 @@ import { QueryClientProvider } from '@tanstack/react-query';
 import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';
 import { RouterProvider } from 'react-router';
+import { registerSW } from 'virtual:pwa-register';
 import { createRouter } from './app/router';
+import { onSent, startOutbox } from './features/readings/outbox';
 import { queryClient } from './lib/query-client';
+
+// The service worker precaches the app shell so the yard screens open without a connection.
+registerSW({ immediate: true });
+startOutbox();
+onSent(() => {
+  void queryClient.invalidateQueries({ queryKey: ['pieces'] });
+  void queryClient.invalidateQueries({ queryKey: ['yard'] });
+});
 
 const router = createRouter(queryClient);
 

@@ -11,6 +11,10 @@ import { PiecesPage, listFilters } from './routes/pieces';
 import { PiecePage } from './routes/piece';
 import { UsersPage } from './routes/users';
 import { RouteError } from './routes/route-error';
+import { YardPage } from './routes/yard';
+import { YardPiecePage } from './routes/yard-piece';
+import { TagsPage } from './routes/tags';
+import { yardPackQuery } from '../features/yard/pack';
 
 export function createRouter(qc: QueryClient) {
   const requireUser = async ({ request }: LoaderFunctionArgs) => {
@@ -45,6 +49,9 @@ export function createRouter(qc: QueryClient) {
           element: <PiecePage />,
           errorElement: <RouteError />,
         },
+        { path: 'yard', loader: async () => qc.ensureQueryData(yardPackQuery), element: <YardPage />, errorElement: <RouteError /> },
+        { path: 'yard/pieces/:id', loader: async () => qc.ensureQueryData(yardPackQuery), element: <YardPiecePage />, errorElement: <RouteError /> },
+        { path: 'tags', loader: async () => qc.ensureQueryData(jobsQuery), element: <TagsPage />, errorElement: <RouteError /> },
         {
           path: 'admin/users',
           loader: async () => Promise.all([qc.ensureQueryData(usersQuery), qc.ensureQueryData(jobsQuery)]),

@@ -1,11 +1,13 @@
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { NavLink, Outlet, useNavigate } from 'react-router';
 import { ROLE_LABELS, type Role } from '#shared/api/roles';
-import { meQuery, signOut } from '../../features/auth/api';
+import { forgetMe, meQuery, signOut } from '../../features/auth/api';
 
 interface NavItem { to: string; label: string; roles: Role[] }
 const NAV: NavItem[] = [
+  { to: '/yard', label: 'Yard', roles: ['inspector', 'qc_manager', 'engineer', 'admin'] },
   { to: '/', label: 'Pieces', roles: ['inspector', 'qc_manager', 'engineer', 'admin', 'viewer'] },
+  { to: '/tags', label: 'Tags', roles: ['qc_manager', 'engineer', 'admin'] },
   { to: '/admin/users', label: 'Users', roles: ['admin'] },
 ];
 
@@ -16,6 +18,7 @@ export function Layout() {
   if (!me) return null;
   const out = async () => {
     await signOut().catch(() => undefined);
+    forgetMe();
     qc.clear();
     navigate('/login');
   };

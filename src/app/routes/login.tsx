@@ -5,7 +5,8 @@ import { useForm } from 'react-hook-form';
 import { Link, useNavigate, useSearchParams } from 'react-router';
 import { loginSchema, type LoginInput } from '#shared/api/auth';
 import { Field, FormError } from '../../components/ui/field';
-import { meQuery, signIn } from '../../features/auth/api';
+import { meQuery, rememberMe, signIn } from '../../features/auth/api';
+import { flush } from '../../features/readings/outbox';
 import { ApiFailure } from '../../lib/api';
 
 export function AuthFrame({ title, children }: { title: string; children: React.ReactNode }) {
@@ -32,8 +33,10 @@ export function LoginPage() {
     setError(null);
     try {
       const me = await signIn(v);
+      rememberMe(me);
       qc.setQueryData(meQuery.queryKey, me);
-      navigate(params.get('next') ?? '/');
+      void flush(); // readings kept on this tablet while the sign-in had expired go out now
+      navigate(params.get('next') ?? (me.role === 'inspector' ? '/yard' : '/'));
     } catch (e) {
       setError(e instanceof ApiFailure ? e.message : 'sign-in failed');
     }

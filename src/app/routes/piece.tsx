@@ -6,13 +6,15 @@ import { StatusBadge } from '../../components/ui/status-badge';
 import { meQuery } from '../../features/auth/api';
 import { pieceQuery } from '../../features/pieces/api';
 import { ReadingsTable } from '../../features/pieces/components/readings-table';
-import { ReadingForm } from '../../features/readings/components/reading-form';
+import { ReadingEntry } from '../../features/readings/components/reading-entry';
+import { QueuePanel } from '../../features/readings/components/queue-panel';
+import type { DesignSpec } from '#shared/api/designs';
 import { ageDays } from '../../lib/format';
 
 export function PiecePage() {
   const { id } = useParams();
   const { data: me } = useQuery(meQuery);
-  const { data, refetch } = useQuery(pieceQuery(id!));
+  const { data } = useQuery(pieceQuery(id!));
   if (!data || !me) return null;
   const { piece, design, readings } = data;
   const spec = design.spec as { length?: number; units?: string };
@@ -75,8 +77,9 @@ export function PiecePage() {
         </section>
       </div>
       {CAN.logReading.includes(me.role) && piece.status !== 'shipped' && (
-        <div className="mb-6">
-          <ReadingForm pieceId={piece.id} unit={me.unitSystem === 'us' ? 'in' : 'mm'} onSaved={() => void refetch()} />
+        <div className="mb-6 grid gap-3">
+          <QueuePanel />
+          <ReadingEntry piece={piece} spec={design.spec as DesignSpec} unit={me.unitSystem === 'us' ? 'in' : 'mm'} />
         </div>
       )}
       <section aria-labelledby="readings-title">

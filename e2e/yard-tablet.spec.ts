@@ -1,0 +1,119 @@
+import AxeBuilder from '@axe-core/playwright';
+import { expect, test, type Page } from '@playwright/test';
+import { serverReadings, signInAs } from './helpers';
+
+test.use({ viewport: { width: 768, height: 1024 }, hasTouch: true });
+
+// Notes carry the run's time, so a re-run against the same database counts only its own rows.
+const run = Date.now();
+
+/** Opens the first piece due a reading today from the yard start page; returns its id and mark. */
+async function openDuePiece(page: Page): Promise<{ id: string; mark: string }> {
+  await expect(page.getByRole('heading', { name: 'Yard readings' })).toBeVisible();
+  await page.getByRole('region', { name: /Due a reading today/ }).getByRole('link').first().click();
+  await expect(page).toHaveURL(/\/yard\/pieces\//);
+  const id = page.url().split('/').pop()!;
+  const mark = (await page.getByRole('heading', { level: 1 }).textContent())!;
+  return { id, mark };
+}
+
+async function logReading(page: Page, value: string, note: string): Promise<void> {
+  await page.getByLabel(/^Camber/).fill(value);
+  await page.getByLabel('Note').fill(note);
+  await page.getByRole('button', { name: 'Save the reading' }).click();
+  await expect(page.getByRole('status').filter({ hasText: 'is saved on this tablet' })).toBeVisible();
+}
+
+async function controlledByServiceWorker(page: Page): Promise<void> {
+  await page.evaluate(async () => {
+    await navigator.serviceWorker.ready;
+  });
+  await page.reload();
+  await expect.poll(() => page.evaluate(() => !!navigator.serviceWorker.controller)).toBe(true);
+}
+
+test('find a piece by mark, log a reading, and see at once that it is inside the expected band', async ({ page }) => {
+  await signInAs(page, 'inspector@ridgeback.example');
+  await expect(page).toHaveURL(/\/yard$/);
+  await page.getByLabel('Piece mark').fill('g 40');
+  await page.getByRole('region', { name: 'Matching pieces' }).getByRole('link').first().click();
+  // Read the prediction shown for a first value, then enter exactly the expected camber.
+  await page.getByLabel(/^Camber/).fill('0');
+  const expected = await page.getByText(/^Expected at \d+ days:/).textContent();
+  const value = /: (-?[\d /]+) in/.exec(expected!)![1]!;
+  await page.getByLabel(/^Camber/).fill(value);
+  await expect(page.getByRole('status').filter({ hasText: 'Inside the expected band' })).toBeVisible();
+  await page.getByLabel(/^Camber/).fill(String(Number(value.split(' ')[0]) + 4));
+  await expect(page.getByText('Outside the tolerance limits')).toBeVisible();
+  await expect(page.getByText('Please measure again before saving')).toBeVisible();
+});
+
+test('offline: three readings wait on the tablet across a reload, then reach the server exactly once', async ({ page, context, request }) => {
+  await signInAs(page, 'inspector@ridgeback.example');
+  await controlledByServiceWorker(page);
+  const piece = await openDuePiece(page);
+  await context.setOffline(true);
+  for (const n of [1, 2, 3]) await logReading(page, `1 ${n}/8`, `offline-e2e ${run} ${n}`);
+  await expect(page.getByTestId('queue-status')).toContainText('3 readings wait');
+  await page.reload();
+  await expect(page.getByRole('heading', { name: piece.mark, level: 1 })).toBeVisible();
+  await expect(page.getByTestId('queue-status')).toContainText('3 readings wait');
+  await context.setOffline(false);
+  await page.evaluate(() => window.dispatchEvent(new Event('online')));
+  await expect(page.getByTestId('queue-status')).toHaveText('✓ All readings sent', { timeout: 15_000 });
+  const rows = (await serverReadings(request, piece.id)).filter((r) => r.note?.startsWith(`offline-e2e ${run}`));
+  expect(rows.map((r) => r.note).sort()).toEqual([1, 2, 3].map((n) => `offline-e2e ${run} ${n}`));
+});
+
+test('a response lost on the way back is retried with the same key and stores one row', async ({ page, request }) => {
+  await signInAs(page, 'inspector@ridgeback.example');
+  const piece = await openDuePiece(page);
+  let dropped = false;
+  await page.route('**/api/readings', async (route) => {
+    if (dropped) return route.continue();
+    dropped = true;
+    await route.fetch(); // the server stores the reading…
+    await route.abort('connectionreset'); // …and the answer never reaches the tablet
+  });
+  await logReading(page, '1 1/4', `lost-answer-e2e ${run}`);
+  await expect(page.getByTestId('queue-status')).toContainText('1 reading waits');
+  await page.getByRole('button', { name: 'Send now' }).click();
+  await expect(page.getByTestId('queue-status')).toHaveText('✓ All readings sent');
+  const rows = (await serverReadings(request, piece.id)).filter((r) => r.note === `lost-answer-e2e ${run}`);
+  expect(rows).toHaveLength(1);
+});
+
+test('a reading the server refuses lands in "needs attention", with the reason', async ({ page }) => {
+  await signInAs(page, 'inspector@ridgeback.example');
+  await openDuePiece(page);
+  await page.route('**/api/readings', (route) =>
+    route.fulfill({ status: 422, json: { code: 'idempotency_key_reused', message: 'this Idempotency-Key was already used for a different reading' } }),
+  );
+  await logReading(page, '1 3/8', 'refused-e2e');
+  await expect(page.getByRole('heading', { name: /Needs attention \(1\)/ })).toBeVisible();
+  await expect(page.getByText('already used for a different reading')).toBeVisible();
+  await expect(page.getByTestId('queue-status')).toHaveText('✓ All readings sent');
+});
+
+test('keyboard only: reach the value, type it and save with Enter', async ({ page }) => {
+  await signInAs(page, 'inspector@ridgeback.example');
+  await openDuePiece(page);
+  for (let i = 0; i < 30; i++) {
+    if ((await page.evaluate(() => document.activeElement?.id)) === 'camber-value') break;
+    await page.keyboard.press('Tab');
+  }
+  expect(await page.evaluate(() => document.activeElement?.id)).toBe('camber-value');
+  await page.keyboard.type('1 5/16');
+  await page.keyboard.press('Enter');
+  await expect(page.getByRole('status').filter({ hasText: '1 5/16 in = 33.3 mm' })).toBeVisible();
+});
+
+test('the yard screens have no serious or critical accessibility violations (axe, WCAG 2 A/AA)', async ({ page }) => {
+  await signInAs(page, 'inspector@ridgeback.example');
+  const yard = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa']).analyze();
+  await openDuePiece(page);
+  await page.getByLabel(/^Camber/).fill('1 3/8');
+  const entry = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa']).analyze();
+  const serious = [...yard.violations, ...entry.violations].filter((v) => v.impact === 'serious' || v.impact === 'critical');
+  expect(serious.map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`)).toEqual([]);
+});
