@@ -117,3 +117,35 @@ test('the yard screens have no serious or critical accessibility violations (axe
   const serious = [...yard.violations, ...entry.violations].filter((v) => v.impact === 'serious' || v.impact === 'critical');
   expect(serious.map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`)).toEqual([]);
 });
+
+test('a sign-in that expired while offline asks to sign in again and keeps the queue', async ({ page, context, request }) => {
+  await signInAs(page, 'inspector@ridgeback.example');
+  const piece = await openDuePiece(page);
+  await context.setOffline(true);
+  await logReading(page, '1 7/16', `expired-e2e ${run}`);
+  await context.clearCookies();
+  await context.setOffline(false);
+  await page.evaluate(() => window.dispatchEvent(new Event('online')));
+  await expect(page.getByRole('alert').filter({ hasText: 'Your sign-in has expired' })).toBeVisible();
+  await expect(page.getByTestId('queue-status')).toContainText('1 reading waits');
+  await page.getByRole('link', { name: 'Sign in again' }).click();
+  await page.getByLabel('E-mail').fill('inspector@ridgeback.example');
+  await page.getByLabel('Password').fill('camber-demo-2026');
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await expect(page.getByTestId('queue-status')).toHaveText('✓ All readings sent');
+  expect((await serverReadings(request, piece.id)).filter((r) => r.note === `expired-e2e ${run}`)).toHaveLength(1);
+});
+
+test('the tag scanner asks nothing of any other host (its .wasm is served by the app)', async ({ page }) => {
+  const foreign: string[] = [];
+  page.on('request', (r) => {
+    if (!r.url().startsWith('http://127.0.0.1:') && !r.url().startsWith('data:') && !r.url().startsWith('blob:')) foreign.push(r.url());
+  });
+  await signInAs(page, 'inspector@ridgeback.example');
+  await page.getByRole('button', { name: /Scan a piece tag/ }).click();
+  // Headless chromium has no camera: the scanner says so and offers typed entry.
+  await expect(page.getByRole('alert').filter({ hasText: 'camera is not available' })).toBeVisible();
+  const wasm = await page.evaluate(async () => (await caches.keys()).length > 0 && (await Promise.all((await caches.keys()).map(async (k) => (await (await caches.open(k)).keys()).map((r) => r.url)))).flat().some((u) => u.endsWith('.wasm')));
+  expect(wasm).toBe(true);
+  expect(foreign).toEqual([]);
+});
