@@ -11,7 +11,7 @@ export async function signInAs(page: Page, email: string): Promise<void> {
 }
 
 /** Readings of a piece as the server has them, read through the API with its own session. */
-export async function serverReadings(request: APIRequestContext, pieceId: string): Promise<Array<{ note: string | null; valueMm: number }>> {
+export async function serverReadings(request: APIRequestContext, pieceId: string): Promise<Array<{ note: string | null; valueMm: number; hasPhoto: boolean }>> {
   const login = await request.post('/api/auth/login', { data: { email: 'qc@ridgeback.example', password: DEMO_PASSWORD } });
   expect(login.ok()).toBe(true);
   const res = await request.get(`/api/pieces/${pieceId}`);

@@ -149,3 +149,15 @@ test('the tag scanner asks nothing of any other host (its .wasm is served by the
   expect(wasm).toBe(true);
   expect(foreign).toEqual([]);
 });
+
+test('a photo taken with the reading reaches the server with it', async ({ page, request }) => {
+  await signInAs(page, 'inspector@ridgeback.example');
+  const piece = await openDuePiece(page);
+  const png = Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAQAAAC1HAwCAAAAC0lEQVR42mNkYAAAAAYAAjCB0C8AAAAASUVORK5CYII=', 'base64');
+  await page.getByLabel('Photo (optional)').setInputFiles({ name: 'tape.png', mimeType: 'image/png', buffer: png });
+  await expect(page.getByText('tape.png will be sent with the reading')).toBeVisible();
+  await logReading(page, '1 1/2', `photo-e2e ${run}`);
+  await expect(page.getByTestId('queue-status')).toHaveText('✓ All readings sent');
+  const row = (await serverReadings(request, piece.id)).find((r) => r.note === `photo-e2e ${run}`);
+  expect(row?.hasPhoto).toBe(true);
+});

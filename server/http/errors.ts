@@ -42,6 +42,9 @@ export const errorMiddleware: ErrorRequestHandler = (err, req, res, _next) => {
   if (err instanceof ZodError) {
     return send(400, { code: ERROR_CODES.validation, message: 'some fields are not valid', fieldErrors: fieldErrorsOf(err) });
   }
+  const multerCode = (err as { code?: string; name?: string }).name === 'MulterError' ? (err as { code: string }).code : null;
+  if (multerCode === 'LIMIT_FILE_SIZE') return send(413, { code: 'payload_too_large', message: 'the file is larger than 5 MB', fieldErrors: { photo: ['larger than 5 MB'] } });
+  if (multerCode) return send(400, { code: ERROR_CODES.validation, message: `the upload was refused: ${(err as Error).message}` });
   const bp = err as BodyParserError;
   if (bp.type === 'entity.too.large') return send(413, { code: 'payload_too_large', message: 'the request body is too large' });
   if (bp.type === 'entity.parse.failed') return send(400, { code: ERROR_CODES.validation, message: 'the request body is not valid JSON' });

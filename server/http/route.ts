@@ -49,12 +49,15 @@ function parse<T>(schema: ZodType<T> | undefined, value: unknown, where: string)
 /** Mounts the route table: role check, zod validation of params, query and body, then the handler. */
 export function mountRoutes(router: Router, routes: RouteDef[]): void {
   for (const r of routes) {
+    // The role is checked before anything else runs, uploads included.
+    const guard: RequestHandler = (req, _res, next) => {
+      if (r.roles === 'public') return next();
+      if (!req.user) return next(unauthenticated());
+      if (!r.roles.includes(req.user.role)) return next(forbidden());
+      next();
+    };
     const handler: RequestHandler = async (req, res) => {
       const user = req.user ?? null;
-      if (r.roles !== 'public') {
-        if (!user) throw unauthenticated();
-        if (!r.roles.includes(user.role)) throw forbidden();
-      }
       const params = parse(r.params, req.params, 'path');
       const query = parse(r.query, req.query, 'query');
       const body = parse(r.body, req.body ?? {}, 'body');
@@ -63,6 +66,6 @@ export function mountRoutes(router: Router, routes: RouteDef[]): void {
       if (result === undefined) res.status(r.status ?? 204).end();
       else res.status(r.status ?? 200).json(result);
     };
-    router[r.method](r.path, ...(r.before ?? []), handler);
+    router[r.method](r.path, guard, ...(r.before ?? []), handler);
   }
 }

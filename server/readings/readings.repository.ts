@@ -5,7 +5,8 @@ const localHour = (d: Date, timeZone: string): number =>
   Number(new Intl.DateTimeFormat('en-GB', { hour: 'numeric', hourCycle: 'h23', timeZone }).format(d));
 
 export const READING_SELECT = `
-  SELECT r.*, u.name AS taken_by_name, pl.time_zone
+  SELECT r.*, u.name AS taken_by_name, pl.time_zone,
+         EXISTS (SELECT 1 FROM reading_photo ph WHERE ph.reading_id = r.id) AS has_photo
     FROM reading r JOIN app_user u ON u.id = r.taken_by JOIN plant pl ON pl.id = r.plant_id`;
 
 export function toReadingDto(r: Record<string, unknown>): ReadingDto {
@@ -29,6 +30,7 @@ export function toReadingDto(r: Record<string, unknown>): ReadingDto {
     supersedes: (r.supersedes as string | null) ?? null,
     supersededBy: (r.superseded_by as string | null) ?? null,
     correctionReason: (r.correction_reason as string | null) ?? null,
+    hasPhoto: Boolean(r.has_photo),
     likelyDistorted: isLikelyDistorted(r.sky as string | null, localHour(takenAt, String(r.time_zone))),
   };
 }

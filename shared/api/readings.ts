@@ -67,6 +67,7 @@ export const readingSchema = z.object({
   supersedes: z.string().uuid().nullable(),
   supersededBy: z.string().uuid().nullable(),
   correctionReason: z.string().nullable(),
+  hasPhoto: z.boolean(),
   likelyDistorted: z.boolean(),
 });
 export type ReadingDto = z.infer<typeof readingSchema>;

@@ -48,6 +48,22 @@ export async function api<T>(path: string, o: Options<T> = {}): Promise<T> {
   return o.schema ? o.schema.parse(data) : (data as T);
 }
 
+/** Uploads a file as multipart form data, with the CSRF header; same error shape as `api`. */
+export async function upload(path: string, field: string, file: Blob, filename: string): Promise<void> {
+  const form = new FormData();
+  form.append(field, file, filename);
+  let res: Response;
+  try {
+    res = await fetch(`/api${path}`, { method: 'POST', body: form, headers: { 'X-CSRF-Token': readCookie('cw_csrf') ?? '' }, credentials: 'same-origin' });
+  } catch {
+    throw new ApiFailure(0, { code: 'offline', message: 'no connection to the server' });
+  }
+  if (!res.ok) {
+    const body = ((await res.json().catch(() => null)) ?? { code: 'http_error', message: `the server answered ${res.status}` }) as ApiError;
+    throw new ApiFailure(res.status, body);
+  }
+}
+
 /** A random key for idempotent writes; works outside secure contexts too. */
 export function newIdempotencyKey(): string {
   const b = crypto.getRandomValues(new Uint8Array(16));

@@ -36,6 +36,8 @@ const idFor = (r: RouteDef, plant: typeof a): string => {
     case 'piece':
     case undefined:
       return plant.piece.id;
+    case 'reading':
+      return plant.reading.id;
     default:
       throw new Error(`add an id for resource ${r.resource}`);
   }

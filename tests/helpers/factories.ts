@@ -47,7 +47,16 @@ export async function buildPiece(ds: DataSource, plantId: string, o: { jobId?: s
 }
 
 /** A plant with one user of every role and a piece, ready for requests. */
-export async function buildPlantWithUsers(ds: DataSource): Promise<{ plantId: string; users: Record<Role, { id: string; email: string }>; piece: { id: string; mark: string; jobId: string } }> {
+export async function buildReading(ds: DataSource, plantId: string, pieceId: string, takenBy: string, o: { valueMm?: number; takenAt?: string; sky?: string } = {}): Promise<{ id: string }> {
+  const [row] = await ds.query(
+    `INSERT INTO reading (plant_id, piece_id, taken_at, value_mm, entered_text, entered_unit, method, support, sky, taken_by, idempotency_key, request_hash)
+     VALUES ($1, $2, $3, $4, $5, 'mm', 'level', 'dunnage', $6, $7, $8, 'factory') RETURNING id`,
+    [plantId, pieceId, o.takenAt ?? new Date().toISOString(), o.valueMm ?? 30, `${o.valueMm ?? 30} mm`, o.sky ?? null, takenBy, `f-${randomUUID()}`],
+  );
+  return { id: row.id };
+}
+
+export async function buildPlantWithUsers(ds: DataSource): Promise<{ plantId: string; users: Record<Role, { id: string; email: string }>; piece: { id: string; mark: string; jobId: string }; reading: { id: string } }> {
   const plant = await buildPlant(ds);
   const piece = await buildPiece(ds, plant.id);
   const users = {
@@ -57,5 +66,6 @@ export async function buildPlantWithUsers(ds: DataSource): Promise<{ plantId: st
     admin: await buildUser(ds, plant.id, 'admin'),
     viewer: await buildUser(ds, plant.id, 'viewer', { jobId: piece.jobId }),
   };
-  return { plantId: plant.id, users, piece };
+  const reading = await buildReading(ds, plant.id, piece.id, users.inspector.id);
+  return { plantId: plant.id, users, piece, reading };
 }

@@ -5,12 +5,16 @@
 import { createStore, get, update } from 'idb-keyval';
 import type { CreateReadingInput } from '#shared/api/readings';
 import { ApiFailure } from '../../lib/api';
-import { postReading } from './api';
+import { postPhoto, postReading } from './api';
 
 export interface OutboxEntry {
   key: string;
   input: CreateReadingInput;
   mark: string;
+  /** A photo taken with the reading, sent once the reading is stored. */
+  photo?: Blob;
+  /** Set once the server stored the reading while its photo still waits. */
+  readingId?: string;
   status: 'waiting' | 'failed';
   error?: string;
   createdAt: string;
@@ -62,8 +66,8 @@ export async function refresh(): Promise<void> {
 }
 
 /** Keeps the reading on the device first, then tries to send it. */
-export async function enqueue(input: CreateReadingInput, key: string, mark: string): Promise<void> {
-  await change((l) => (l.some((e) => e.key === key) ? l : [...l, { key, input, mark, status: 'waiting', createdAt: new Date().toISOString() }]));
+export async function enqueue(input: CreateReadingInput, key: string, mark: string, photo?: Blob): Promise<void> {
+  await change((l) => (l.some((e) => e.key === key) ? l : [...l, { key, input, mark, photo, status: 'waiting', createdAt: new Date().toISOString() }]));
   void flush();
 }
 
@@ -90,7 +94,12 @@ export function flush(): Promise<void> {
         const next = (await load()).find((e) => e.status === 'waiting');
         if (!next) break;
         try {
-          await postReading(next.input, next.key);
+          const readingId = next.readingId ?? (await postReading(next.input, next.key)).id;
+          if (next.photo) {
+            // Remember the stored reading first: if the photo fails, only the photo is sent again.
+            await change((l) => l.map((x) => (x.key === next.key ? { ...x, readingId } : x)));
+            await postPhoto(readingId, next.photo);
+          }
           await change((l) => l.filter((e) => e.key !== next.key));
           emit({ lastError: null, signInNeeded: false });
           for (const l of sentListeners) l(next.input.pieceId);

@@ -43,6 +43,11 @@ export function ReadingsTable({ readings, unit, timeZone }: { readings: ReadingD
               <td className="px-3 py-2">
                 {r.correctionReason ? `Correction: ${r.correctionReason}. ` : ''}
                 {r.note ?? ''}
+                {r.hasPhoto && (
+                  <a className="ml-1 underline" href={`/api/readings/${r.id}/photo`} target="_blank" rel="noreferrer">
+                    📷 Photo
+                  </a>
+                )}
               </td>
             </tr>
           ))}

@@ -5,6 +5,7 @@ import { echoTape, parseTape, TapeParseError } from '#shared/camber/tape';
 import { checkReading, type BandCheck } from '#shared/yard/band-check';
 import { ChoiceGroup } from '../../../components/ui/choice-group';
 import { newIdempotencyKey } from '../../../lib/api';
+import { shrinkPhoto } from '../../../lib/image';
 import { enqueue } from '../outbox';
 import { TapeKeypad } from './tape-keypad';
 import { Verdict } from './verdict';
@@ -44,6 +45,8 @@ export function ReadingEntry({ piece, spec, unit, onSaved }: Props) {
   const [saved, setSaved] = useState<string | null>(null);
   const [error, setError] = useState<string | null>(null);
   const [key, setKey] = useState(newIdempotencyKey);
+  const [photo, setPhoto] = useState<Blob | null>(null);
+  const [photoName, setPhotoName] = useState('');
 
   let parsed: ReturnType<typeof parseTape> | null = null;
   let parseError: string | null = null;
@@ -99,11 +102,13 @@ export function ReadingEntry({ piece, spec, unit, onSaved }: Props) {
       note: note.trim() || undefined,
     };
     setError(null);
-    await enqueue(input, key, piece.mark);
+    await enqueue(input, key, piece.mark, photo ?? undefined);
     setSaved(`${echoTape(parsed)} for ${piece.mark} is saved on this tablet.`);
     setKey(newIdempotencyKey());
     setValue('');
     setNote('');
+    setPhoto(null);
+    setPhotoName('');
     onSaved?.();
   };
 
@@ -169,6 +174,23 @@ export function ReadingEntry({ piece, spec, unit, onSaved }: Props) {
           Note
         </label>
         <input id="note" className="input mt-1 min-h-[52px] border-2 border-ink text-xl" value={note} maxLength={500} onChange={(e) => setNote(e.target.value)} />
+        <label htmlFor="photo" className="mt-4 block text-lg font-semibold">
+          Photo (optional)
+        </label>
+        <input
+          id="photo"
+          type="file"
+          accept="image/*"
+          capture="environment"
+          className="mt-1 block min-h-[52px] w-full text-lg"
+          onChange={(e) => {
+            const f = e.target.files?.[0];
+            if (!f) return;
+            setPhotoName(f.name);
+            shrinkPhoto(f).then(setPhoto, () => setPhoto(f));
+          }}
+        />
+        {photoName && <p className="text-lg">📷 {photoName} will be sent with the reading.</p>}
       </div>
       {error && (
         <p className="mt-3 text-lg font-semibold text-bad" role="alert">
