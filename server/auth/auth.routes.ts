@@ -14,6 +14,8 @@ export function authRoutes(d: Deps): RouteDef[] {
   const loginLimiter = rateLimit({
     windowMs: 15 * 60_000,
     limit: d.cfg.LOGIN_LIMIT,
+    // Only refused attempts count: a shift of correct sign-ins on a shared tablet never locks it.
+    skipSuccessfulRequests: true,
     standardHeaders: 'draft-8',
     legacyHeaders: false,
     keyGenerator: (req) => `${ipKeyGenerator(req.ip ?? '')}|${String((req.body as { email?: unknown } | undefined)?.email ?? '').toLowerCase()}`,
