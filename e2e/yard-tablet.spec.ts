@@ -60,7 +60,7 @@ test('offline: three readings wait on the tablet across a reload, then reach the
   await expect(page.getByTestId('queue-status')).toContainText('3 readings wait');
   await context.setOffline(false);
   await page.evaluate(() => window.dispatchEvent(new Event('online')));
-  await expect(page.getByTestId('queue-status')).toHaveText('✓ All readings sent', { timeout: 15_000 });
+  await expect(page.getByTestId('queue-status')).toHaveText('All readings sent', { timeout: 15_000 });
   const rows = (await serverReadings(request, piece.id)).filter((r) => r.note?.startsWith(`offline-e2e ${run}`));
   expect(rows.map((r) => r.note).sort()).toEqual([1, 2, 3].map((n) => `offline-e2e ${run} ${n}`));
 });
@@ -78,7 +78,7 @@ test('a response lost on the way back is retried with the same key and stores on
   await logReading(page, '1 1/4', `lost-answer-e2e ${run}`);
   await expect(page.getByTestId('queue-status')).toContainText('1 reading waits');
   await page.getByRole('button', { name: 'Send now' }).click();
-  await expect(page.getByTestId('queue-status')).toHaveText('✓ All readings sent');
+  await expect(page.getByTestId('queue-status')).toHaveText('All readings sent');
   const rows = (await serverReadings(request, piece.id)).filter((r) => r.note === `lost-answer-e2e ${run}`);
   expect(rows).toHaveLength(1);
 });
@@ -92,7 +92,7 @@ test('a reading the server refuses lands in "needs attention", with the reason',
   await logReading(page, '1 3/8', 'refused-e2e');
   await expect(page.getByRole('heading', { name: /Needs attention \(1\)/ })).toBeVisible();
   await expect(page.getByText('already used for a different reading')).toBeVisible();
-  await expect(page.getByTestId('queue-status')).toHaveText('✓ All readings sent');
+  await expect(page.getByTestId('queue-status')).toHaveText('All readings sent');
 });
 
 test('keyboard only: reach the value, type it and save with Enter', async ({ page }) => {
@@ -132,7 +132,7 @@ test('a sign-in that expired while offline asks to sign in again and keeps the q
   await page.getByLabel('E-mail').fill('inspector@ridgeback.example');
   await page.getByLabel('Password').fill('camber-demo-2026');
   await page.getByRole('button', { name: 'Sign in' }).click();
-  await expect(page.getByTestId('queue-status')).toHaveText('✓ All readings sent');
+  await expect(page.getByTestId('queue-status')).toHaveText('All readings sent');
   expect((await serverReadings(request, piece.id)).filter((r) => r.note === `expired-e2e ${run}`)).toHaveLength(1);
 });
 
@@ -157,7 +157,7 @@ test('a photo taken with the reading reaches the server with it', async ({ page,
   await page.getByLabel('Photo (optional)').setInputFiles({ name: 'tape.png', mimeType: 'image/png', buffer: png });
   await expect(page.getByText('tape.png will be sent with the reading')).toBeVisible();
   await logReading(page, '1 1/2', `photo-e2e ${run}`);
-  await expect(page.getByTestId('queue-status')).toHaveText('✓ All readings sent');
+  await expect(page.getByTestId('queue-status')).toHaveText('All readings sent');
   const row = (await serverReadings(request, piece.id)).find((r) => r.note === `photo-e2e ${run}`);
   expect(row?.hasPhoto).toBe(true);
 });

@@ -1,4 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
+import { Icon } from '../../components/ui/icon';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
@@ -79,7 +80,7 @@ export function UsersPage() {
         </button>
         {sent && (
           <p className="mt-2 font-semibold text-ok" role="status">
-            ✓ {sent}
+            <Icon name="check" /> {sent}
           </p>
         )}
       </form>
@@ -114,7 +115,7 @@ export function UsersPage() {
                     ))}
                   </select>
                 </td>
-                <td className="px-3 py-2">{!u.active ? '⛔ Deactivated' : u.invited ? '✉ Invited' : '✓ Active'}</td>
+                <td className="px-3 py-2">{!u.active ? <><Icon name="cross" /> Deactivated</> : u.invited ? <><Icon name="clock" /> Invited</> : <><Icon name="check" /> Active</>}</td>
                 <td className="px-3 py-2">
                   {u.id !== me?.id && (
                     <button type="button" className="btn-quiet" onClick={() => update.mutate({ id: u.id, active: !u.active })}>

@@ -1,4 +1,5 @@
 import { useQuery } from '@tanstack/react-query';
+import { Icon } from '../../components/ui/icon';
 import { lazy, Suspense, useCallback, useState } from 'react';
 import { useNavigate } from 'react-router';
 import { QueuePanel } from '../../features/readings/components/queue-panel';
@@ -21,7 +22,7 @@ export function YardPage() {
       </h1>
       {pack.offline && (
         <p className="mb-3 rounded-lg border-2 border-ink bg-warn-light p-3 text-lg font-semibold" role="status">
-          ⚡ No connection: working from the yard list kept on this tablet ({new Date(pack.generatedAt).toLocaleString()}). Readings are kept and sent later.
+          <Icon name="warning" /> No connection: working from the yard list kept on this tablet ({new Date(pack.generatedAt).toLocaleString()}). Readings are kept and sent later.
         </p>
       )}
       <div className="mb-4">

@@ -1,4 +1,5 @@
 import type { ReactNode } from 'react';
+import { Icon } from './icon';
 
 interface Props {
   id: string;
@@ -23,7 +24,7 @@ export function Field({ id, label, error, hint, children }: Props) {
       )}
       {error && (
         <p id={`${id}-error`} className="mt-1 text-sm font-semibold text-bad" role="alert">
-          ⚠ {error}
+          <Icon name="warning" className="h-4 w-4" /> {error}
         </p>
       )}
     </div>
@@ -34,7 +35,7 @@ export function FormError({ message }: { message?: string | null }) {
   if (!message) return null;
   return (
     <p className="mb-4 rounded-md border border-bad bg-bad-light px-3 py-2 font-semibold text-bad" role="alert">
-      ⚠ {message}
+      <Icon name="warning" className="h-4 w-4" /> {message}
     </p>
   );
 }

@@ -1,4 +1,5 @@
 import type { ReadingDto } from '#shared/api/readings';
+import { Icon } from '../../../components/ui/icon';
 import { READING_METHOD_LABELS, SKY_LABELS, SUPPORT_LABELS } from '#shared/api/readings';
 import { camberText, dateTimeText } from '../../../lib/format';
 
@@ -30,7 +31,7 @@ export function ReadingsTable({ readings, unit, timeZone }: { readings: ReadingD
                 {camberText(r.valueMm, unit)}
                 {r.likelyDistorted && (
                   <span className="ml-2 rounded bg-warn-light px-1 text-warn no-underline" title="Taken in afternoon sun: the top flange is warmer and the piece bows up">
-                    ☀ sun-affected
+                    <Icon name="sun" className="h-4 w-4" /> sun-affected
                   </span>
                 )}
                 {r.supersededBy && <span className="sr-only"> (corrected by a later reading)</span>}
@@ -45,7 +46,7 @@ export function ReadingsTable({ readings, unit, timeZone }: { readings: ReadingD
                 {r.note ?? ''}
                 {r.hasPhoto && (
                   <a className="ml-1 underline" href={`/api/readings/${r.id}/photo`} target="_blank" rel="noreferrer">
-                    📷 Photo
+                    <Icon name="camera" className="h-4 w-4" /> Photo
                   </a>
                 )}
               </td>

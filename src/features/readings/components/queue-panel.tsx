@@ -1,4 +1,5 @@
 import { Link } from 'react-router';
+import { Icon } from '../../../components/ui/icon';
 import { discard, flush, retry } from '../outbox';
 import { useOutbox } from '../use-outbox';
 
@@ -9,12 +10,13 @@ export function QueuePanel() {
   const failed = s.entries.filter((e) => e.status === 'failed');
   return (
     <section aria-label="Readings on this tablet" className="rounded-lg border-2 border-ink bg-white p-3">
-      <p className="text-lg font-semibold" role="status" aria-live="polite" data-testid="queue-status">
-        {waiting.length === 0 ? '✓ All readings sent' : `⏳ ${waiting.length} ${waiting.length === 1 ? 'reading waits' : 'readings wait'} to be sent${s.sending ? ' (sending…)' : ''}`}
+      <p className="flex items-center gap-2 text-lg font-semibold" role="status" aria-live="polite" data-testid="queue-status">
+        <Icon name={waiting.length === 0 ? 'check' : 'clock'} />
+        {waiting.length === 0 ? 'All readings sent' : `${waiting.length} ${waiting.length === 1 ? 'reading waits' : 'readings wait'} to be sent${s.sending ? ' (sending…)' : ''}`}
       </p>
       {s.signInNeeded && (
         <p className="mt-2 text-lg font-semibold text-bad" role="alert">
-          🔑 Your sign-in has expired. The readings stay on this tablet.{' '}
+          <Icon name="key" /> Your sign-in has expired. The readings stay on this tablet.{' '}
           <Link className="underline" to="/login?next=/yard">
             Sign in again
           </Link>{' '}
@@ -28,7 +30,9 @@ export function QueuePanel() {
       )}
       {failed.length > 0 && (
         <div className="mt-3">
-          <h2 className="text-lg font-semibold text-bad">⚠ Needs attention ({failed.length})</h2>
+          <h2 className="flex items-center gap-2 text-lg font-semibold text-bad">
+            <Icon name="warning" /> Needs attention ({failed.length})
+          </h2>
           <ul className="mt-1 grid gap-2">
             {failed.map((e) => (
               <li key={e.key} className="rounded border border-bad p-2">

@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { Icon } from '../../../components/ui/icon';
 import type { DesignSpec } from '#shared/api/designs';
 import { isLikelyDistorted, READING_METHOD_LABELS, READING_METHODS, SKIES, SKY_LABELS, SUPPORT_LABELS, SUPPORTS, type CreateReadingInput } from '#shared/api/readings';
 import { echoTape, parseTape, TapeParseError } from '#shared/camber/tape';
@@ -131,7 +132,7 @@ export function ReadingEntry({ piece, spec, unit, onSaved }: Props) {
         aria-invalid={!!parseError}
       />
       <p id="camber-echo" className="mt-1 min-h-[28px] text-lg" aria-live="polite">
-        {parsed ? `Understood as ${echoTape(parsed)}` : parseError ? <span className="font-semibold text-bad">⚠ {parseError}</span> : ''}
+        {parsed ? `Understood as ${echoTape(parsed)}` : parseError ? <span className="font-semibold text-bad"><Icon name="warning" className="h-4 w-4" /> {parseError}</span> : ''}
       </p>
       <button type="button" className="text-base underline" onClick={() => setShowKeypad((s) => !s)} aria-expanded={showKeypad}>
         {showKeypad ? 'Hide the keypad' : 'Show the keypad'}
@@ -152,7 +153,7 @@ export function ReadingEntry({ piece, spec, unit, onSaved }: Props) {
               Overhang past the dunnage ({unit === 'in' ? "e.g. 2' or 24" : 'mm'}; leave empty for the design's)
             </label>
             <input id="overhang" className="input mt-1 min-h-[52px] border-2 border-ink text-xl" value={overhang} onChange={(e) => setOverhang(e.target.value)} aria-invalid={!!overhangError} />
-            {overhangError && <p className="font-semibold text-bad">⚠ {overhangError}</p>}
+            {overhangError && <p className="font-semibold text-bad"><Icon name="warning" className="h-4 w-4" /> {overhangError}</p>}
           </div>
         )}
         <ChoiceGroup legend="Sky" name="sky" value={sky} options={SKIES} labels={SKY_LABELS} onChange={setSky} />
@@ -190,11 +191,11 @@ export function ReadingEntry({ piece, spec, unit, onSaved }: Props) {
             shrinkPhoto(f).then(setPhoto, () => setPhoto(f));
           }}
         />
-        {photoName && <p className="text-lg">📷 {photoName} will be sent with the reading.</p>}
+        {photoName && <p className="text-lg"><Icon name="camera" /> {photoName} will be sent with the reading.</p>}
       </div>
       {error && (
         <p className="mt-3 text-lg font-semibold text-bad" role="alert">
-          ⚠ {error}
+          <Icon name="warning" /> {error}
         </p>
       )}
       <button type="submit" className="btn-primary mt-4 min-h-[64px] w-full text-2xl">
@@ -202,7 +203,7 @@ export function ReadingEntry({ piece, spec, unit, onSaved }: Props) {
       </button>
       {saved && (
         <p className="mt-3 text-lg font-semibold text-ok" role="status">
-          ✓ {saved}
+          <Icon name="check" /> {saved}
         </p>
       )}
     </form>

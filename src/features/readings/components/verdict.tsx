@@ -1,5 +1,6 @@
 import type { BandCheck } from '#shared/yard/band-check';
 import { formatLength } from '#shared/camber/tape';
+import { Icon, type IconName } from '../../../components/ui/icon';
 
 const signed = (mm: number, unit: 'in' | 'mm'): string => `${mm >= 0 ? '+' : '−'}${formatLength(Math.abs(mm), unit)}`;
 
@@ -7,22 +8,24 @@ const signed = (mm: number, unit: 'in' | 'mm'): string => `${mm >= 0 ? '+' : '�
 export function Verdict({ check, unit, sunAfternoon }: { check: BandCheck; unit: 'in' | 'mm'; sunAfternoon: boolean }) {
   const range = `${formatLength(check.lowMm, unit)} to ${formatLength(check.highMm, unit)}`;
   const diff = signed(check.differenceMm, unit);
-  const look =
+  const look: { icon: IconName; title: string; cls: string } =
     check.verdict === 'in-band'
-      ? { icon: '✓', title: 'Inside the expected band', cls: 'border-ok bg-ok-light text-ok' }
+      ? { icon: 'check', title: 'Inside the expected band', cls: 'border-ok bg-ok-light text-ok' }
       : check.verdict === 'outside-band'
-        ? { icon: check.differenceMm > 0 ? '▲' : '▼', title: `Outside the expected band (${check.differenceMm > 0 ? 'higher' : 'lower'})`, cls: 'border-warn bg-warn-light text-warn' }
-        : { icon: '⛔', title: 'Outside the tolerance limits', cls: 'border-bad bg-bad-light text-bad' };
+        ? { icon: check.differenceMm > 0 ? 'up' : 'down', title: `Outside the expected band (${check.differenceMm > 0 ? 'higher' : 'lower'})`, cls: 'border-warn bg-warn-light text-warn' }
+        : { icon: 'cross', title: 'Outside the tolerance limits', cls: 'border-bad bg-bad-light text-bad' };
   return (
     <div className={`rounded-lg border-4 p-4 ${look.cls}`} role="status" aria-live="polite">
-      <p className="text-2xl font-semibold">
-        <span aria-hidden="true">{look.icon}</span> {look.title}
+      <p className="flex items-center gap-2 text-2xl font-semibold">
+        <Icon name={look.icon} className="h-7 w-7" /> {look.title}
       </p>
       <p className="mt-1 text-lg text-ink">
         Expected at {Math.floor(check.ageDays)} days: {formatLength(check.predictedMm, unit)} (band {range}); this reading is {diff} from it.
       </p>
       {sunAfternoon && (
-        <p className="mt-2 text-lg font-semibold text-ink">☀ Taken in afternoon sun: the warm top flange bows the piece up, so this reading is marked as likely distorted.</p>
+        <p className="mt-2 text-lg font-semibold text-ink">
+          <Icon name="sun" /> Taken in afternoon sun: the warm top flange bows the piece up, so this reading is marked as likely distorted.
+        </p>
       )}
       {check.verdict !== 'in-band' && (
         <div className="mt-2 text-lg text-ink">

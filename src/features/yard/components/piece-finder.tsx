@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { Icon } from '../../../components/ui/icon';
 import { Link } from 'react-router';
 import type { YardPiece } from '#shared/api/yard';
 import { markKey } from '../pack';
@@ -11,7 +12,15 @@ function PieceButton({ p }: { p: YardPiece }) {
         <span>{p.mark}</span>
         <span className="text-base font-normal">
           {p.jobNumber} · {p.bed ?? ''}
-          {p.overdue ? ' · ⏰ overdue' : p.due ? ' · ● due today' : ''}
+          {p.overdue ? (
+            <span className="ml-1 inline-flex items-center gap-1 font-semibold">
+              · <Icon name="warning" /> overdue
+            </span>
+          ) : p.due ? (
+            <span className="ml-1 inline-flex items-center gap-1">
+              · <Icon name="clock" /> due today
+            </span>
+          ) : null}
         </span>
       </Link>
     </li>

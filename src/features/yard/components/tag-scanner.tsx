@@ -1,4 +1,5 @@
 import { BarcodeDetector, prepareZXingModule } from 'barcode-detector/ponyfill';
+import { Icon } from '../../../components/ui/icon';
 import wasmUrl from 'zxing-wasm/reader/zxing_reader.wasm?url';
 import { useEffect, useRef, useState } from 'react';
 
@@ -46,7 +47,7 @@ export default function TagScanner({ onPiece, onClose }: { onPiece: (id: string)
     <div className="rounded-lg border-2 border-ink bg-white p-3">
       {problem ? (
         <p role="alert" className="text-yard font-semibold">
-          ⚠ {problem}
+          <Icon name="warning" /> {problem}
         </p>
       ) : (
         <video ref={video} className="w-full rounded" muted playsInline aria-label="Camera view for reading a piece tag" />
