@@ -13,7 +13,9 @@ async function openDuePiece(page: Page): Promise<{ id: string; mark: string }> {
   await page.getByRole('region', { name: /Due a reading today/ }).getByRole('link').first().click();
   await expect(page).toHaveURL(/\/yard\/pieces\//);
   const id = page.url().split('/').pop()!;
-  const mark = (await page.getByRole('heading', { level: 1 }).textContent())!;
+  const entryTitle = page.getByRole('heading', { level: 2, name: /^Log a reading for / });
+  await expect(entryTitle).toBeVisible();
+  const mark = (await entryTitle.textContent())!.replace('Log a reading for ', '');
   return { id, mark };
 }
 
