@@ -28,3 +28,13 @@ test('a viewer signs in and sees only the pieces of their job', async ({ page })
   for (const text of await jobCells.allTextContents()) expect(text).toBe('J-2620');
   await expect(page.getByRole('link', { name: 'Users' })).toHaveCount(0);
 });
+
+test('an engineer prints QR tags for the pieces of a job', async ({ page }) => {
+  await signInAs(page, 'engineer@ridgeback.example');
+  await page.getByRole('link', { name: 'Tags' }).click();
+  await page.getByLabel('Job').selectOption({ label: 'J-2620 Cedar Creek Bridge' });
+  const tags = page.getByRole('img', { name: /QR code for piece G-/ });
+  await expect(tags.first()).toBeVisible();
+  await expect(tags.first().locator('svg')).toHaveCount(1);
+  await expect(page.getByRole('button', { name: /Print \d+ tags/ })).toBeEnabled();
+});

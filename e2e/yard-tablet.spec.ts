@@ -118,6 +118,10 @@ test('the yard screens have no serious or critical accessibility violations (axe
   const entry = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa']).analyze();
   const serious = [...yard.violations, ...entry.violations].filter((v) => v.impact === 'serious' || v.impact === 'critical');
   expect(serious.map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`)).toEqual([]);
+  // Readable in sun: the enhanced contrast rule (7:1, WCAG 1.4.6) on the entry screen with a verdict shown.
+  await page.getByLabel(/^Camber/).fill('9');
+  const sun = await new AxeBuilder({ page }).withRules(['color-contrast-enhanced']).analyze();
+  expect(sun.violations.flatMap((v) => v.nodes.map((n) => `${n.target.join(' ')}: ${n.failureSummary}`))).toEqual([]);
 });
 
 test('a sign-in that expired while offline asks to sign in again and keeps the queue', async ({ page, context, request }) => {

@@ -10,13 +10,13 @@ export function Verdict({ check, unit, sunAfternoon }: { check: BandCheck; unit:
   const diff = signed(check.differenceMm, unit);
   const look: { icon: IconName; title: string; cls: string } =
     check.verdict === 'in-band'
-      ? { icon: 'check', title: 'Inside the expected band', cls: 'border-ok bg-ok-light text-ok' }
+      ? { icon: 'check', title: 'Inside the expected band', cls: 'border-ok bg-white text-ok' }
       : check.verdict === 'outside-band'
-        ? { icon: check.differenceMm > 0 ? 'up' : 'down', title: `Outside the expected band (${check.differenceMm > 0 ? 'higher' : 'lower'})`, cls: 'border-warn bg-warn-light text-warn' }
-        : { icon: 'cross', title: 'Outside the tolerance limits', cls: 'border-bad bg-bad-light text-bad' };
+        ? { icon: check.differenceMm > 0 ? 'up' : 'down', title: `Outside the expected band (${check.differenceMm > 0 ? 'higher' : 'lower'})`, cls: 'border-warn bg-white text-warn' }
+        : { icon: 'cross', title: 'Outside the tolerance limits', cls: 'border-bad bg-white text-bad' };
   return (
     <div className={`rounded-lg border-4 p-4 ${look.cls}`} role="status" aria-live="polite">
-      <p className="flex items-center gap-2 text-2xl font-semibold">
+      <p className="flex items-center gap-2 text-2xl font-semibold text-ink">
         <Icon name={look.icon} className="h-7 w-7" /> {look.title}
       </p>
       <p className="mt-1 text-lg text-ink">
