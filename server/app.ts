@@ -18,13 +18,15 @@ import { readingRoutes } from './readings/readings.routes';
 import { systemRoutes } from './system.routes';
 import { userRoutes } from './users/users.routes';
 import { yardRoutes } from './yard/yard.routes';
+import { reviewRoutes } from './review/review.routes';
+import { boardRoutes } from './board/board.routes';
 
 export const CLIENT_DIR = resolve(ROOT, '.build', 'client');
 
 /** The whole route table: the API, the OpenAPI document and the role matrix test all read it. */
 export function buildRoutes(d: Deps): RouteDef[] {
   const table: RouteDef[] = [];
-  table.push(...authRoutes(d), ...userRoutes(d), ...pieceRoutes(d), ...readingRoutes(d), ...yardRoutes(d), ...camberRoutes(), ...systemRoutes(d, () => table));
+  table.push(...authRoutes(d), ...userRoutes(d), ...pieceRoutes(d), ...readingRoutes(d), ...yardRoutes(d), ...reviewRoutes(d), ...boardRoutes(d), ...camberRoutes(), ...systemRoutes(d, () => table));
   return table;
 }
 

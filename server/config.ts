@@ -31,6 +31,11 @@ const envSchema = z.object({
   BCRYPT_COST: z.coerce.number().int().min(10).max(15).default(11),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   COOKIE_SECURE: z.enum(['true', 'false', 'auto']).default('auto'),
+  JOBS: z.enum(['on', 'off']).default('on'),
+  /** Seconds new flags wait before the digest goes out, so a burst of flags makes one e-mail. */
+  ALERT_DIGEST_SECONDS: z.coerce.number().int().min(0).default(300),
+  /** Seconds a reading waits before its piece is recomputed, so readings in a burst cause one run. */
+  PROJECTION_DELAY_SECONDS: z.coerce.number().int().min(0).default(5),
 });
 
 export type Config = z.infer<typeof envSchema> & { databaseUrl: string; jwtSecret: string; publicUrl: string };

@@ -3,10 +3,18 @@ import type { DataSource } from 'typeorm';
 import type { Config } from './config';
 import type { Mailer } from './mail/mailer';
 
+/** The background work the API asks for; kept in PostgreSQL by pg-boss. */
+export interface Jobs {
+  projectPiece(pieceId: string, delaySeconds?: number): Promise<void>;
+  projectAll(plantId?: string): Promise<number>;
+  alertDigest(plantId: string): Promise<void>;
+}
+
 /** What route factories and services receive: no container, just these. */
 export interface Deps {
   ds: DataSource;
   cfg: Config;
   mailer: Mailer;
   log: Logger;
+  jobs?: Jobs;
 }

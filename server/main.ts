@@ -2,6 +2,7 @@ import type { Server } from 'node:http';
 import { createApp } from './app';
 import { loadConfig, type Config } from './config';
 import { createDataSource } from './db/data-source';
+import { createJobs } from './jobs/queue';
 import { createLogger } from './logger';
 import { createMailer } from './mail/mailer';
 
@@ -12,13 +13,17 @@ export async function startServer(cfg: Config = loadConfig()): Promise<Running> 
   const log = createLogger(cfg.LOG_LEVEL);
   const ds = createDataSource(cfg.databaseUrl);
   await ds.initialize();
-  const app = createApp({ ds, cfg, mailer: createMailer(cfg), log });
+  const deps = { ds, cfg, mailer: createMailer(cfg), log };
+  const jobs = cfg.JOBS === 'on' ? await createJobs(deps, { schedule: true }) : null;
+  if (jobs) await jobs.startWorkers();
+  const app = createApp({ ...deps, jobs: jobs ?? undefined });
   const server = await new Promise<Server>((resolveListen, reject) => {
     const s = app.listen(cfg.PORT, cfg.HOST, () => resolveListen(s));
     s.on('error', reject);
   });
   const stop = async (): Promise<void> => {
     await new Promise<void>((r) => server.close(() => r()));
+    await jobs?.stop();
     await ds.destroy();
   };
   return { server, url: cfg.publicUrl, stop };

@@ -4,6 +4,9 @@ import { spawn } from 'node:child_process';
 import { loadConfig } from '../config';
 import { startFakeInbox } from '../mail/fake-inbox';
 import { seedDemo } from '#seed/demo';
+import { createLogger } from '../logger';
+import { createMailer } from '../mail/mailer';
+import { recomputeAll } from '../projections/projection.service';
 import { migrate, prepareDatabase, withDataSource } from './database';
 import { portIsFree } from './ports';
 
@@ -11,7 +14,10 @@ async function main(): Promise<void> {
   const cfg = loadConfig();
   await prepareDatabase(cfg);
   await migrate(cfg.databaseUrl);
-  await withDataSource(cfg.databaseUrl, (ds) => seedDemo(ds, { bcryptCost: cfg.BCRYPT_COST }));
+  await withDataSource(cfg.databaseUrl, async (ds) => {
+    const seeded = await seedDemo(ds, { bcryptCost: cfg.BCRYPT_COST });
+    if (seeded.created) await recomputeAll({ ds, cfg, mailer: createMailer(cfg), log: createLogger('warn') }, { quiet: true });
+  });
   const inbox = (await portIsFree(cfg.SMTP_PORT)) ? await startFakeInbox(cfg.SMTP_PORT, cfg.MAIL_WEB_PORT) : null;
   const children = [
     spawn('node_modules/.bin/tsx', ['watch', '--clear-screen=false', 'server/ops/serve-api.ts'], { stdio: 'inherit' }),

@@ -2,6 +2,9 @@
 import { loadConfig } from '../config';
 import { startFakeInbox } from '../mail/fake-inbox';
 import { startServer, stopOnSignals } from '../main';
+import { createLogger } from '../logger';
+import { createMailer } from '../mail/mailer';
+import { recomputeAll } from '../projections/projection.service';
 import { DEMO_PASSWORD, DEMO_USERS } from '#seed/designs';
 import { seedDemo } from '#seed/demo';
 import { migrate, prepareDatabase, withDataSource } from './database';
@@ -19,6 +22,10 @@ async function main(): Promise<void> {
   if (ran.length) console.log(`Migrations applied: ${ran.join(', ')}`);
   const seeded = await withDataSource(cfg.databaseUrl, (ds) => seedDemo(ds, { bcryptCost: cfg.BCRYPT_COST }));
   console.log(seeded.created ? 'Demo scenario loaded.' : 'Demo scenario already present.');
+  if (seeded.created) {
+    const r = await withDataSource(cfg.databaseUrl, (ds) => recomputeAll({ ds, cfg, mailer: createMailer(cfg), log: createLogger('warn') }, { quiet: true }));
+    console.log(`Projections computed for ${r.done} pieces${r.failed ? ` (${r.failed} failed)` : ''}.`);
+  }
 
   let inbox: { stop: () => Promise<void> } | null = null;
   if (cfg.SMTP_HOST === '127.0.0.1' && !cfg.SMTP_USER) {

@@ -4,6 +4,9 @@
 import pg from 'pg';
 import { loadConfig } from '../config';
 import { seedDemo } from '#seed/demo';
+import { createLogger } from '../logger';
+import { createMailer } from '../mail/mailer';
+import { recomputeAll } from '../projections/projection.service';
 import { migrate, prepareDatabase, withDataSource } from './database';
 import { stopLocalPostgres } from './postgres';
 import { aptInstall, exists, gate } from './system';
@@ -23,7 +26,11 @@ async function freshE2eDatabase(url: string): Promise<void> {
   await admin.query(`CREATE DATABASE "${name}"`);
   await admin.end();
   await migrate(url);
-  await withDataSource(url, (ds) => seedDemo(ds, { bcryptCost: 10 }));
+  await withDataSource(url, async (ds) => {
+    await seedDemo(ds, { bcryptCost: 10 });
+    const cfg = loadConfig({ ...process.env, DATABASE_URL: url });
+    await recomputeAll({ ds, cfg, mailer: createMailer(cfg), log: createLogger('warn') }, { quiet: true });
+  });
 }
 
 async function main(): Promise<number> {

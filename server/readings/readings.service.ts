@@ -71,5 +71,6 @@ export async function createReading(d: Deps, user: SessionUser, key: string, inp
     return newId;
   });
   if (id === null) return (await replay())!;
+  await d.jobs?.projectPiece(input.pieceId);
   return { reading: (await readingById(d.ds, id))!, replayed: false };
 }

@@ -1,13 +1,14 @@
 import { z } from 'zod';
 import { pageSchema, pagedSchema } from './common';
 
-export const PIECE_STATUSES = ['cast', 'in_storage', 'hold', 'cleared', 'shipped'] as const;
+export const PIECE_STATUSES = ['cast', 'in_storage', 'hold', 'engineering', 'cleared', 'shipped'] as const;
 export const pieceStatusSchema = z.enum(PIECE_STATUSES);
 export type PieceStatus = z.infer<typeof pieceStatusSchema>;
 export const PIECE_STATUS_LABELS: Record<PieceStatus, string> = {
   cast: 'Cast, not released',
   in_storage: 'In storage',
   hold: 'On hold',
+  engineering: 'In engineering review',
   cleared: 'Cleared to ship',
   shipped: 'Shipped',
 };

@@ -9,6 +9,8 @@ export interface CalibrationReading {
   camber: number;
   /** Taken in conditions that distort it (sun on the top flange in the afternoon). */
   distorted?: boolean;
+  /** The curve's parts for this reading when they differ from the curve's (e.g. the piece on the bed). */
+  parts?: { elastic: number; growth: number };
 }
 
 export interface FactorPrior {
@@ -59,7 +61,7 @@ export function calibrate(partsAt: Parts, readings: CalibrationReading[], o: Cal
   let r0 = l00 * o.elastic.mean;
   let r1 = l11 * o.growth.mean;
   for (const rd of used) {
-    const { elastic, growth } = partsAt(rd.ageDays);
+    const { elastic, growth } = rd.parts ?? partsAt(rd.ageDays);
     const varI = o.measurementSd ** 2 * (rd.distorted ? 4 : 1);
     l00 += (elastic * elastic) / varI;
     l01 += (elastic * growth) / varI;

@@ -19,6 +19,7 @@ let routes: RouteDef[];
 /** Valid bodies for routes that name a record, so the plant check is reached after validation. */
 const VALID_BODY: Record<string, unknown> = {
   'patch /users/:id': { role: 'inspector' },
+  'post /pieces/:id/decisions': { kind: 'remeasure', comment: '', version: 1 },
 };
 
 beforeAll(async () => {

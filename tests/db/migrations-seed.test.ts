@@ -3,7 +3,13 @@ import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createDataSource, MIGRATIONS } from '#server/db/data-source';
 import { migrate, revertLast } from '#server/ops/database';
-import { seedDemo } from '#seed/demo';
+import pino from 'pino';
+import { seedDemo, isDriftingIndex } from '#seed/demo';
+import { loadConfig } from '#server/config';
+import { createMailer } from '#server/mail/mailer';
+import { recomputeAll } from '#server/projections/projection.service';
+import { reviewList } from '#server/review/review.repository';
+import { loadSessionUser } from '#server/users/users.repository';
 
 // Runs against a fresh, empty database made for this file and dropped afterwards.
 const adminUrl = (): string => {
@@ -63,6 +69,18 @@ describe('migrations and the demo scenario on an empty database', () => {
       expect(first.reading).toBeGreaterThan(400);
       expect((await seedDemo(ds, { now, bcryptCost: 10 })).created).toBe(false);
       expect(await counts()).toEqual(first);
+
+      // The review list of the demo shows exactly the drifting pieces still in the yard.
+      const cfg = loadConfig({ ...process.env, DATABASE_URL: url });
+      const deps = { ds, cfg, mailer: createMailer(cfg), log: pino({ level: 'silent' }) };
+      await recomputeAll(deps, { quiet: true });
+      const [qc] = await ds.query(`SELECT id FROM app_user WHERE role = 'qc_manager'`);
+      const user = (await loadSessionUser(ds, qc.id))!;
+      const list = await reviewList(ds, user, { view: 'needs-decision', sort: 'mark', dir: 'asc', page: 1, pageSize: 200 });
+      const pieces: Array<{ mark: string; status: string }> = await ds.query(`SELECT mark, status FROM piece ORDER BY created_at`);
+      const drifting = pieces.filter((p, i) => isDriftingIndex(i) && p.status !== 'shipped').map((p) => p.mark).sort();
+      expect(drifting.length).toBeGreaterThan(0);
+      expect(list.items.map((i) => i.mark).sort()).toEqual(drifting);
     } finally {
       await ds.destroy();
     }

@@ -6,6 +6,7 @@ const LOOK: Record<PieceStatus, { icon: IconName; cls: string }> = {
   cast: { icon: 'clock', cls: 'bg-concrete-100 text-concrete-800' },
   in_storage: { icon: 'stack', cls: 'bg-concrete-100 text-concrete-800' },
   hold: { icon: 'hand', cls: 'bg-warn-light text-warn' },
+  engineering: { icon: 'warning', cls: 'bg-warn-light text-warn' },
   cleared: { icon: 'check', cls: 'bg-ok-light text-ok' },
   shipped: { icon: 'truck', cls: 'bg-concrete-200 text-concrete-700' },
 };
