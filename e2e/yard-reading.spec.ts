@@ -13,7 +13,7 @@ test('an inspector finds a piece in the office list, logs a reading and sees it 
   await first.click();
   await expect(page.getByRole('heading', { name: mark, level: 1 })).toBeVisible();
 
-  await page.getByLabel(/^Camber/).fill('1-3/8"');
+  await page.getByRole('textbox', { name: /^Camber/ }).fill('1-3/8"');
   await expect(page.getByText('Understood as 1 3/8 in = 34.9 mm')).toBeVisible();
   await page.getByRole('group', { name: 'Sky' }).getByText('Overcast').click();
   await page.getByLabel('Note').fill(note);
@@ -30,6 +30,6 @@ test('a reading the parser cannot understand is refused with the reason, before 
   await page.getByRole('link', { name: 'Pieces' }).click();
   await page.getByLabel('Status').selectOption('in_storage');
   await page.getByRole('table').getByRole('link').first().click();
-  await page.getByLabel(/^Camber/).fill('1 3/7');
+  await page.getByRole('textbox', { name: /^Camber/ }).fill('1 3/7');
   await expect(page.getByText(/sixteenths, not \/7/)).toBeVisible();
 });

@@ -20,7 +20,7 @@ async function openDuePiece(page: Page): Promise<{ id: string; mark: string }> {
 }
 
 async function logReading(page: Page, value: string, note: string): Promise<void> {
-  await page.getByLabel(/^Camber/).fill(value);
+  await page.getByRole('textbox', { name: /^Camber/ }).fill(value);
   await page.getByLabel('Note').fill(note);
   await page.getByRole('button', { name: 'Save the reading' }).click();
   await expect(page.getByRole('status').filter({ hasText: 'is saved on this tablet' })).toBeVisible();
@@ -40,12 +40,12 @@ test('find a piece by mark, log a reading, and see at once that it is inside the
   await page.getByLabel('Piece mark').fill('g 40');
   await page.getByRole('region', { name: 'Matching pieces' }).getByRole('link').first().click();
   // Read the prediction shown for a first value, then enter exactly the expected camber.
-  await page.getByLabel(/^Camber/).fill('0');
+  await page.getByRole('textbox', { name: /^Camber/ }).fill('0');
   const expected = await page.getByText(/^Expected at \d+ days:/).textContent();
   const value = /: (-?[\d /]+) in/.exec(expected!)![1]!;
-  await page.getByLabel(/^Camber/).fill(value);
+  await page.getByRole('textbox', { name: /^Camber/ }).fill(value);
   await expect(page.getByRole('status').filter({ hasText: 'Inside the expected band' })).toBeVisible();
-  await page.getByLabel(/^Camber/).fill(String(Number(value.split(' ')[0]) + 4));
+  await page.getByRole('textbox', { name: /^Camber/ }).fill(String(Number(value.split(' ')[0]) + 4));
   await expect(page.getByText('Outside the tolerance limits')).toBeVisible();
   await expect(page.getByText('Please measure again before saving')).toBeVisible();
 });
@@ -114,12 +114,12 @@ test('the yard screens have no serious or critical accessibility violations (axe
   await signInAs(page, 'inspector@ridgeback.example');
   const yard = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa']).analyze();
   await openDuePiece(page);
-  await page.getByLabel(/^Camber/).fill('1 3/8');
+  await page.getByRole('textbox', { name: /^Camber/ }).fill('1 3/8');
   const entry = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa']).analyze();
   const serious = [...yard.violations, ...entry.violations].filter((v) => v.impact === 'serious' || v.impact === 'critical');
   expect(serious.map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`)).toEqual([]);
   // Readable in sun: the enhanced contrast rule (7:1, WCAG 1.4.6) on the entry screen with a verdict shown.
-  await page.getByLabel(/^Camber/).fill('9');
+  await page.getByRole('textbox', { name: /^Camber/ }).fill('9');
   const sun = await new AxeBuilder({ page }).withRules(['color-contrast-enhanced']).analyze();
   expect(sun.violations.flatMap((v) => v.nodes.map((n) => `${n.target.join(' ')}: ${n.failureSummary}`))).toEqual([]);
 });

@@ -15,6 +15,10 @@ import { YardPage } from './routes/yard';
 import { YardPiecePage } from './routes/yard-piece';
 import { TagsPage } from './routes/tags';
 import { yardPackQuery } from '../features/yard/pack';
+import { BoardPage } from './routes/board';
+import { ReviewPage, reviewFilters } from './routes/review';
+import { JobsStatusPage } from './routes/jobs-status';
+import { boardQuery, jobsStatusQuery, projectionQuery, reviewQuery } from '../features/review/api';
 
 export function createRouter(qc: QueryClient) {
   const requireUser = async ({ request }: LoaderFunctionArgs) => {
@@ -45,10 +49,18 @@ export function createRouter(qc: QueryClient) {
         },
         {
           path: 'pieces/:id',
-          loader: async ({ params }) => qc.ensureQueryData(pieceQuery(params.id!)),
+          loader: async ({ params }) => Promise.all([qc.ensureQueryData(pieceQuery(params.id!)), qc.ensureQueryData(projectionQuery(params.id!))]),
           element: <PiecePage />,
           errorElement: <RouteError />,
         },
+        { path: 'board', loader: async () => qc.ensureQueryData(boardQuery), element: <BoardPage />, errorElement: <RouteError /> },
+        {
+          path: 'review',
+          loader: async ({ request }) => Promise.all([qc.ensureQueryData(reviewQuery(reviewFilters(new URL(request.url).searchParams))), qc.ensureQueryData(jobsQuery)]),
+          element: <ReviewPage />,
+          errorElement: <RouteError />,
+        },
+        { path: 'admin/jobs', loader: async () => qc.ensureQueryData(jobsStatusQuery), element: <JobsStatusPage />, errorElement: <RouteError /> },
         { path: 'yard', loader: async () => qc.ensureQueryData(yardPackQuery), element: <YardPage />, errorElement: <RouteError /> },
         { path: 'yard/pieces/:id', loader: async () => qc.ensureQueryData(yardPackQuery), element: <YardPiecePage />, errorElement: <RouteError /> },
         { path: 'tags', loader: async () => qc.ensureQueryData(jobsQuery), element: <TagsPage />, errorElement: <RouteError /> },

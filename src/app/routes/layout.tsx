@@ -5,10 +5,13 @@ import { forgetMe, meQuery, signOut } from '../../features/auth/api';
 
 interface NavItem { to: string; label: string; roles: Role[] }
 const NAV: NavItem[] = [
+  { to: '/board', label: 'Board', roles: ['qc_manager', 'engineer', 'admin'] },
+  { to: '/review', label: 'Review', roles: ['qc_manager', 'engineer', 'admin'] },
   { to: '/yard', label: 'Yard', roles: ['inspector', 'qc_manager', 'engineer', 'admin'] },
   { to: '/', label: 'Pieces', roles: ['inspector', 'qc_manager', 'engineer', 'admin', 'viewer'] },
   { to: '/tags', label: 'Tags', roles: ['qc_manager', 'engineer', 'admin'] },
   { to: '/admin/users', label: 'Users', roles: ['admin'] },
+  { to: '/admin/jobs', label: 'Jobs', roles: ['admin', 'engineer'] },
 ];
 
 export function Layout() {

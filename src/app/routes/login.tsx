@@ -36,7 +36,7 @@ export function LoginPage() {
       rememberMe(me);
       qc.setQueryData(meQuery.queryKey, me);
       void flush(); // readings kept on this tablet while the sign-in had expired go out now
-      navigate(params.get('next') ?? (me.role === 'inspector' ? '/yard' : '/'));
+      navigate(params.get('next') ?? (me.role === 'inspector' ? '/yard' : me.role === 'viewer' ? '/' : '/board'));
     } catch (e) {
       setError(e instanceof ApiFailure ? e.message : 'sign-in failed');
     }

@@ -1,5 +1,11 @@
 import { useQuery } from '@tanstack/react-query';
+import { lazy, Suspense } from 'react';
 import { Link, useParams } from 'react-router';
+import { DECISION_LABELS } from '#shared/api/review';
+import { projectionQuery } from '../../features/review/api';
+import { DecisionForm } from '../../features/review/components/decision-form';
+import { FlagList } from '../../features/review/components/flag-list';
+import { camberText, dateTimeText } from '../../lib/format';
 import { CAN } from '#shared/api/roles';
 import { Caution } from '../../components/ui/caution';
 import { StatusBadge } from '../../components/ui/status-badge';
@@ -11,12 +17,17 @@ import { QueuePanel } from '../../features/readings/components/queue-panel';
 import type { DesignSpec } from '#shared/api/designs';
 import { ageDays } from '../../lib/format';
 
+const CamberChart = lazy(() => import('../../features/pieces/components/camber-chart'));
+
 export function PiecePage() {
   const { id } = useParams();
   const { data: me } = useQuery(meQuery);
   const { data } = useQuery(pieceQuery(id!));
+  const { data: proj } = useQuery(projectionQuery(id!));
   if (!data || !me) return null;
-  const { piece, design, readings } = data;
+  const { piece, design, readings, decisions } = data;
+  const deciders = ['qc_manager', 'engineer', 'admin'];
+  const p = proj?.projection;
   const spec = design.spec as { length?: number; units?: string };
   return (
     <article aria-labelledby="piece-title">
@@ -30,6 +41,42 @@ export function PiecePage() {
           {piece.mark}
         </h1>
         <StatusBadge status={piece.status} />
+      </div>
+      <div className="mb-6 grid gap-4 lg:grid-cols-3">
+        <section className="card lg:col-span-2" aria-labelledby="chart-title">
+          <h2 id="chart-title" className="mb-2 text-xl font-semibold">
+            Camber with age
+          </h2>
+          {p ? (
+            <Suspense fallback={<p>Drawing the chart…</p>}>
+              <CamberChart curve={p.curve} readings={readings} castDate={piece.castDate} shipDate={piece.shipDate} erectionDate={piece.erectionDate} unit={me.unitSystem} />
+            </Suspense>
+          ) : (
+            <p>{proj?.failure ? `The projection failed: ${proj.failure}` : 'The projection for this piece has not run yet.'}</p>
+          )}
+          {p && (
+            <dl className="mt-3 grid grid-cols-2 gap-x-4 gap-y-1 text-sm sm:grid-cols-4">
+              <dt className="text-concrete-700">At ship date</dt>
+              <dd>{p.atShip ? `${camberText(p.atShip.mm, me.unitSystem)} (${camberText(p.atShip.lowMm, me.unitSystem)} to ${camberText(p.atShip.highMm, me.unitSystem)})` : '—'}</dd>
+              <dt className="text-concrete-700">At erection</dt>
+              <dd>{p.atErection ? `${camberText(p.atErection.mm, me.unitSystem)} (${camberText(p.atErection.lowMm, me.unitSystem)} to ${camberText(p.atErection.highMm, me.unitSystem)})` : '—'}</dd>
+              <dt className="text-concrete-700">Growth factor</dt>
+              <dd>
+                {p.growthFactor.toFixed(2)} ± {p.growthFactorSd.toFixed(2)} ({p.note})
+              </dd>
+              <dt className="text-concrete-700">Method · computed</dt>
+              <dd>
+                {p.method} · {dateTimeText(p.computedAt, me.timeZone)}
+              </dd>
+            </dl>
+          )}
+        </section>
+        <section className="card" aria-labelledby="flags-title">
+          <h2 id="flags-title" className="mb-2 text-xl font-semibold">
+            Flags
+          </h2>
+          <FlagList flags={proj?.flags ?? []} />
+        </section>
       </div>
       <div className="mb-6 grid gap-4 md:grid-cols-2">
         <section className="card" aria-labelledby="design-title">
@@ -82,6 +129,31 @@ export function PiecePage() {
           <ReadingEntry piece={piece} spec={design.spec as DesignSpec} unit={me.unitSystem === 'us' ? 'in' : 'mm'} />
         </div>
       )}
+      <div className="mb-6 grid gap-4 md:grid-cols-2">
+        {deciders.includes(me.role) && piece.status !== 'shipped' && (
+          <DecisionForm pieceId={piece.id} version={piece.version} role={me.role} flagged={(proj?.flags ?? []).some((f) => f.severity >= 2)} />
+        )}
+        <section className="card" aria-labelledby="decisions-title">
+          <h2 id="decisions-title" className="mb-2 text-xl font-semibold">
+            Decisions
+          </h2>
+          {decisions.length === 0 ? (
+            <p>No decision yet.</p>
+          ) : (
+            <ol className="grid gap-2">
+              {decisions.map((x) => (
+                <li key={x.id} className="border-l-4 border-concrete-400 pl-3">
+                  <p className="font-semibold">{DECISION_LABELS[x.kind as keyof typeof DECISION_LABELS] ?? x.kind}</p>
+                  <p className="text-sm">
+                    {x.decidedBy} · {dateTimeText(x.decidedAt, me.timeZone)}
+                  </p>
+                  {x.comment && <p>{x.comment}</p>}
+                </li>
+              ))}
+            </ol>
+          )}
+        </section>
+      </div>
       <section aria-labelledby="readings-title">
         <h2 id="readings-title" className="mb-2 text-xl font-semibold">
           Readings
