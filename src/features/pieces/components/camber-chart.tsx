@@ -31,7 +31,7 @@ export default function CamberChart({ curve, readings, castDate, shipDate, erect
   const marker = (label: string, date: string | null, color: string): ChartDataset<'line', Array<{ x: number; y: number }>> | null =>
     date ? { label, data: [{ x: ageOf(castDate, `${date}T12:00:00Z`), y: yMin }, { x: ageOf(castDate, `${date}T12:00:00Z`), y: yMax }], borderColor: color, borderWidth: 2, borderDash: [2, 3], pointRadius: 0 } : null;
   const datasets = [
-    { label: 'Expected band (high)', data: pts((p) => p.highMm), borderColor: 'rgba(107,105,98,0.4)', backgroundColor: 'rgba(180,177,169,0.35)', pointRadius: 0, fill: '+1', borderWidth: 1 },
+    { label: 'Expected band', data: pts((p) => p.highMm), borderColor: 'rgba(107,105,98,0.4)', backgroundColor: 'rgba(180,177,169,0.35)', pointRadius: 0, fill: '+1', borderWidth: 1 },
     { label: 'Expected band (low)', data: pts((p) => p.lowMm), borderColor: 'rgba(107,105,98,0.4)', pointRadius: 0, fill: false, borderWidth: 1 },
     { label: 'Predicted', data: pts((p) => p.camberMm), borderColor: '#3f3e3a', pointRadius: 0, borderWidth: 2 },
     { label: 'Projected from its readings', data: pts((p) => p.calibratedMm), borderColor: '#8a2e08', borderDash: [8, 4], pointRadius: 0, borderWidth: 2 },
