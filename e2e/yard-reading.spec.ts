@@ -8,6 +8,9 @@ test('an inspector finds a piece in the office list, logs a reading and sees it 
   await page.getByRole('link', { name: 'Pieces' }).click();
   await page.getByLabel('Status').selectOption('in_storage');
   await page.getByLabel('Find by mark').fill('dt-1');
+  // Wait for the filtered list (the previous page stays visible while the next one loads).
+  await expect(page.getByRole('table').getByRole('row').nth(1)).toContainText('In storage');
+  await expect(page.getByRole('table').getByRole('row').nth(1)).toContainText('DT-1');
   const first = page.getByRole('table').getByRole('link').first();
   const mark = (await first.textContent())!;
   await first.click();
@@ -29,6 +32,7 @@ test('a reading the parser cannot understand is refused with the reason, before 
   await signInAs(page, 'inspector@ridgeback.example');
   await page.getByRole('link', { name: 'Pieces' }).click();
   await page.getByLabel('Status').selectOption('in_storage');
+  await expect(page.getByRole('table').getByRole('row').nth(1)).toContainText('In storage');
   await page.getByRole('table').getByRole('link').first().click();
   await page.getByRole('textbox', { name: /^Camber/ }).fill('1 3/7');
   await expect(page.getByText(/sixteenths, not \/7/)).toBeVisible();
