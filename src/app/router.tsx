@@ -20,6 +20,8 @@ import { ReviewPage, reviewFilters } from './routes/review';
 import { JobsStatusPage } from './routes/jobs-status';
 import { boardQuery, jobsStatusQuery, projectionQuery, reviewQuery } from '../features/review/api';
 
+const onlyOnPathChange = ({ currentUrl, nextUrl }: { currentUrl: URL; nextUrl: URL }): boolean => currentUrl.pathname !== nextUrl.pathname;
+
 export function createRouter(qc: QueryClient) {
   const requireUser = async ({ request }: LoaderFunctionArgs) => {
     const me = await qc.ensureQueryData(meQuery);
@@ -46,6 +48,8 @@ export function createRouter(qc: QueryClient) {
             return null;
           },
           element: <PiecesPage />,
+          // Filters change the URL; the page fetches them itself, so a filter change never waits on the loader.
+          shouldRevalidate: onlyOnPathChange,
         },
         {
           path: 'pieces/:id',
@@ -59,6 +63,7 @@ export function createRouter(qc: QueryClient) {
           loader: async ({ request }) => Promise.all([qc.ensureQueryData(reviewQuery(reviewFilters(new URL(request.url).searchParams))), qc.ensureQueryData(jobsQuery)]),
           element: <ReviewPage />,
           errorElement: <RouteError />,
+          shouldRevalidate: onlyOnPathChange,
         },
         { path: 'admin/jobs', loader: async () => qc.ensureQueryData(jobsStatusQuery), element: <JobsStatusPage />, errorElement: <RouteError /> },
         { path: 'yard', loader: async () => qc.ensureQueryData(yardPackQuery), element: <YardPage />, errorElement: <RouteError /> },

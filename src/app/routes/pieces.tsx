@@ -32,12 +32,18 @@ export function PiecesPage() {
   const { data: jobs = [] } = useQuery(jobsQuery);
   const { data, isFetching } = useQuery({ ...piecesQuery(f), placeholderData: keepPreviousData });
   const set = (k: string, v: string | undefined): void => {
-    const next = new URLSearchParams(sp);
-    if (v) next.set(k, v);
-    else next.delete(k);
-    if (k !== 'page') next.delete('page');
-    setSp(next, { replace: true });
+    setSp(
+      (prev) => {
+        const next = new URLSearchParams(prev);
+        if (v) next.set(k, v);
+        else next.delete(k);
+        if (k !== 'page') next.delete('page');
+        return next;
+      },
+      { replace: true },
+    );
   };
+
   const sortBy = (s: (typeof PIECE_SORTS)[number]): void => {
     const next = new URLSearchParams(sp);
     next.set('sort', s);

@@ -35,12 +35,18 @@ export function ReviewPage() {
   const { data: jobs = [] } = useQuery(jobsQuery);
   const { data } = useQuery({ ...reviewQuery(f), placeholderData: keepPreviousData });
   const set = (k: string, v: string | undefined): void => {
-    const next = new URLSearchParams(sp);
-    if (v) next.set(k, v);
-    else next.delete(k);
-    next.delete('page');
-    setSp(next, { replace: true });
+    setSp(
+      (prev) => {
+        const next = new URLSearchParams(prev);
+        if (v) next.set(k, v);
+        else next.delete(k);
+        if (k !== 'page') next.delete('page');
+        return next;
+      },
+      { replace: true },
+    );
   };
+
   const unit = me?.unitSystem ?? 'us';
   return (
     <section aria-labelledby="review-title">
