@@ -1,5 +1,6 @@
 import { keepPreviousData, useQuery } from '@tanstack/react-query';
-import { Link, useSearchParams } from 'react-router';
+import { Link } from 'react-router';
+import { useUrlParams } from '../../lib/use-url-params';
 import { PIECE_SORTS, PIECE_STATUS_LABELS, PIECE_STATUSES, type PieceListQuery } from '#shared/api/pieces';
 import { PRODUCT_TYPES } from '#shared/camber/schema';
 import { StatusBadge } from '../../components/ui/status-badge';
@@ -26,29 +27,24 @@ export function listFilters(sp: URLSearchParams): PieceListQuery {
 const SORT_LABELS: Record<(typeof PIECE_SORTS)[number], string> = { mark: 'Mark', castDate: 'Cast', shipDate: 'Ship date', status: 'Status', job: 'Job' };
 
 export function PiecesPage() {
-  const [sp, setSp] = useSearchParams();
+  const [sp, update] = useUrlParams();
   const f = listFilters(sp);
   const { data: me } = useQuery(meQuery);
   const { data: jobs = [] } = useQuery(jobsQuery);
   const { data, isFetching } = useQuery({ ...piecesQuery(f), placeholderData: keepPreviousData });
   const set = (k: string, v: string | undefined): void => {
-    setSp(
-      (prev) => {
-        const next = new URLSearchParams(prev);
-        if (v) next.set(k, v);
-        else next.delete(k);
-        if (k !== 'page') next.delete('page');
-        return next;
-      },
-      { replace: true },
-    );
+    update((next) => {
+      if (v) next.set(k, v);
+      else next.delete(k);
+      if (k !== 'page') next.delete('page');
+    });
   };
 
   const sortBy = (s: (typeof PIECE_SORTS)[number]): void => {
-    const next = new URLSearchParams(sp);
-    next.set('sort', s);
-    next.set('dir', f.sort === s && f.dir === 'asc' ? 'desc' : 'asc');
-    setSp(next, { replace: true });
+    update((next) => {
+      next.set('sort', s);
+      next.set('dir', f.sort === s && f.dir === 'asc' ? 'desc' : 'asc');
+    });
   };
   const pages = data ? Math.max(1, Math.ceil(data.total / data.pageSize)) : 1;
   const unit = me?.unitSystem ?? 'us';

@@ -1,5 +1,6 @@
 import { keepPreviousData, useQuery } from '@tanstack/react-query';
-import { Link, useSearchParams } from 'react-router';
+import { Link } from 'react-router';
+import { useUrlParams } from '../../lib/use-url-params';
 import { REVIEW_SORTS, type ReviewQuery } from '#shared/api/review';
 import { FLAG_KINDS, FLAG_LABELS } from '#shared/projection/project';
 import { PRODUCT_TYPES } from '#shared/camber/schema';
@@ -29,22 +30,17 @@ export function reviewFilters(sp: URLSearchParams): ReviewQuery {
 
 /** The QC manager's morning list: flagged pieces by urgency, with the evidence in each row. */
 export function ReviewPage() {
-  const [sp, setSp] = useSearchParams();
+  const [sp, update] = useUrlParams();
   const f = reviewFilters(sp);
   const { data: me } = useQuery(meQuery);
   const { data: jobs = [] } = useQuery(jobsQuery);
   const { data } = useQuery({ ...reviewQuery(f), placeholderData: keepPreviousData });
   const set = (k: string, v: string | undefined): void => {
-    setSp(
-      (prev) => {
-        const next = new URLSearchParams(prev);
-        if (v) next.set(k, v);
-        else next.delete(k);
-        if (k !== 'page') next.delete('page');
-        return next;
-      },
-      { replace: true },
-    );
+    update((next) => {
+      if (v) next.set(k, v);
+      else next.delete(k);
+      if (k !== 'page') next.delete('page');
+    });
   };
 
   const unit = me?.unitSystem ?? 'us';
