@@ -32,6 +32,8 @@ const envSchema = z.object({
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   COOKIE_SECURE: z.enum(['true', 'false', 'auto']).default('auto'),
   JOBS: z.enum(['on', 'off']).default('on'),
+  /** A piece whose last reading is older than this many days cannot ship without a QC override. */
+  SHIP_READING_MAX_AGE_DAYS: z.coerce.number().int().min(1).max(365).default(14),
   /** Seconds new flags wait before the digest goes out, so a burst of flags makes one e-mail. */
   ALERT_DIGEST_SECONDS: z.coerce.number().int().min(0).default(300),
   /** Seconds a reading waits before its piece is recomputed, so readings in a burst cause one run. */
