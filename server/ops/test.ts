@@ -40,6 +40,7 @@ async function main(): Promise<number> {
   const unitUrl = cfg.databaseUrl;
   const e2eUrl = withDb(cfg.databaseUrl, `${new URL(cfg.databaseUrl).pathname.slice(1)}_e2e`);
   if (!exists('/usr/bin/chromium')) aptInstall(['chromium'], "Debian's chromium is needed for the end-to-end tests");
+  if (!exists('/usr/bin/pdftotext')) aptInstall(['poppler-utils'], 'poppler-utils (pdftotext, pdftoppm) is needed to check the PDF reports');
 
   const env = { ...process.env, NODE_ENV: 'test', DATABASE_URL: unitUrl };
   const bin = (name: string): string => `node_modules/.bin/${name}`;
