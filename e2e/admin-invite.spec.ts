@@ -27,6 +27,12 @@ test('a viewer signs in and sees only the pieces of their job', async ({ page })
   await expect(jobCells.first()).toHaveText('J-2620');
   for (const text of await jobCells.allTextContents()) expect(text).toBe('J-2620');
   await expect(page.getByRole('link', { name: 'Users' })).toHaveCount(0);
+  await page.getByRole('link', { name: 'Bays' }).click();
+  await expect(page.getByRole('heading', { name: 'Bay matching' })).toBeVisible();
+  await expect(page.getByLabel('Erection bay').locator('option').nth(1)).toBeAttached();
+  const options = await page.getByLabel('Erection bay').locator('option').allTextContents();
+  expect(options.slice(1).length).toBeGreaterThan(0);
+  for (const o of options.slice(1)) expect(o).toMatch(/^J-2620 ·/);
 });
 
 test('an engineer prints QR tags for the pieces of a job', async ({ page }) => {

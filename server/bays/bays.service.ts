@@ -24,7 +24,7 @@ export async function listBays(d: Deps, user: SessionUser, jobId?: string): Prom
   }
   const rows: Array<{ job_id: string; number: string; bay: string; pieces: number }> = await d.ds.query(
     `SELECT p.job_id, j.number, p.bay, count(*)::int AS pieces FROM piece p JOIN job j ON j.id = p.job_id
-      WHERE p.plant_id = $1 AND p.bay IS NOT NULL${extra} GROUP BY 1, 2, 3 ORDER BY 2, 3`,
+      WHERE p.plant_id = $1 AND p.bay IS NOT NULL AND p.status <> 'shipped'${extra} GROUP BY 1, 2, 3 ORDER BY 2, 3`,
     args,
   );
   return rows.map((r) => ({ jobId: r.job_id, jobNumber: r.number, bay: r.bay, pieces: r.pieces }));
@@ -43,7 +43,7 @@ export async function bayDetail(d: Deps, user: SessionUser, jobId: string, bay: 
        FROM piece p JOIN member_design md ON md.id = p.design_id JOIN job j ON j.id = p.job_id
        LEFT JOIN projection pr ON pr.piece_id = p.id
       WHERE p.plant_id = $1 AND p.job_id = $2 AND p.design_id IN (SELECT design_id FROM bay_designs)
-        AND (p.bay = $3 OR (p.bay IS NULL AND p.status NOT IN ('shipped', 'hold', 'engineering')))
+        AND p.status <> 'shipped' AND (p.bay = $3 OR (p.bay IS NULL AND p.status NOT IN ('hold', 'engineering')))
       ORDER BY p.bay_position NULLS LAST, p.mark`,
     [user.plantId, jobId, bay],
   );

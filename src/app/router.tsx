@@ -18,6 +18,9 @@ import { yardPackQuery } from '../features/yard/pack';
 import { BoardPage } from './routes/board';
 import { ReviewPage, reviewFilters } from './routes/review';
 import { JobsStatusPage } from './routes/jobs-status';
+import { BaysPage } from './routes/bays';
+import { ShippingPage } from './routes/shipping';
+import { baysQuery } from '../features/shipping/api';
 import { boardQuery, jobsStatusQuery, projectionQuery, reviewQuery } from '../features/review/api';
 
 const onlyOnPathChange = ({ currentUrl, nextUrl }: { currentUrl: URL; nextUrl: URL }): boolean => currentUrl.pathname !== nextUrl.pathname;
@@ -65,6 +68,8 @@ export function createRouter(qc: QueryClient) {
           errorElement: <RouteError />,
           shouldRevalidate: onlyOnPathChange,
         },
+        { path: 'bays', loader: async () => qc.ensureQueryData(baysQuery), element: <BaysPage />, errorElement: <RouteError /> },
+        { path: 'shipping', element: <ShippingPage />, errorElement: <RouteError /> },
         { path: 'admin/jobs', loader: async () => qc.ensureQueryData(jobsStatusQuery), element: <JobsStatusPage />, errorElement: <RouteError /> },
         { path: 'yard', loader: async () => qc.ensureQueryData(yardPackQuery), element: <YardPage />, errorElement: <RouteError /> },
         { path: 'yard/pieces/:id', loader: async () => qc.ensureQueryData(yardPackQuery), element: <YardPiecePage />, errorElement: <RouteError /> },

@@ -9,6 +9,8 @@ const NAV: NavItem[] = [
   { to: '/review', label: 'Review', roles: ['qc_manager', 'engineer', 'admin'] },
   { to: '/yard', label: 'Yard', roles: ['inspector', 'qc_manager', 'engineer', 'admin'] },
   { to: '/', label: 'Pieces', roles: ['inspector', 'qc_manager', 'engineer', 'admin', 'viewer'] },
+  { to: '/bays', label: 'Bays', roles: ['qc_manager', 'engineer', 'admin', 'viewer'] },
+  { to: '/shipping', label: 'Shipping', roles: ['qc_manager', 'engineer', 'admin'] },
   { to: '/tags', label: 'Tags', roles: ['qc_manager', 'engineer', 'admin'] },
   { to: '/admin/users', label: 'Users', roles: ['admin'] },
   { to: '/admin/jobs', label: 'Jobs', roles: ['admin', 'engineer'] },

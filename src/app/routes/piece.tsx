@@ -41,6 +41,12 @@ export function PiecePage() {
           {piece.mark}
         </h1>
         <StatusBadge status={piece.status} />
+        <a className="btn-quiet no-print ml-auto" href={`/api/reports/pieces/${piece.id}`} target="_blank" rel="noreferrer">
+          Camber report (PDF)
+        </a>
+        <button type="button" className="btn-quiet no-print" onClick={() => window.print()}>
+          Print this page
+        </button>
       </div>
       <div className="mb-6 grid gap-4 lg:grid-cols-3">
         <section className="card lg:col-span-2" aria-labelledby="chart-title">
