@@ -23,13 +23,14 @@ import { boardRoutes } from './board/board.routes';
 import { bayRoutes } from './bays/bays.routes';
 import { shippingRoutes } from './shipping/shipping.routes';
 import { reportRoutes } from './reports/reports.routes';
+import { importRoutes } from './imports/imports.routes';
 
 export const CLIENT_DIR = resolve(ROOT, '.build', 'client');
 
 /** The whole route table: the API, the OpenAPI document and the role matrix test all read it. */
 export function buildRoutes(d: Deps): RouteDef[] {
   const table: RouteDef[] = [];
-  table.push(...authRoutes(d), ...userRoutes(d), ...pieceRoutes(d), ...readingRoutes(d), ...yardRoutes(d), ...reviewRoutes(d), ...boardRoutes(d), ...bayRoutes(d), ...shippingRoutes(d), ...reportRoutes(d), ...camberRoutes(), ...systemRoutes(d, () => table));
+  table.push(...authRoutes(d), ...userRoutes(d), ...pieceRoutes(d), ...readingRoutes(d), ...yardRoutes(d), ...reviewRoutes(d), ...boardRoutes(d), ...bayRoutes(d), ...shippingRoutes(d), ...reportRoutes(d), ...importRoutes(d), ...camberRoutes(), ...systemRoutes(d, () => table));
   return table;
 }
 

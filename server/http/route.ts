@@ -6,7 +6,7 @@ import type { Role } from '#shared/api/roles';
 import { AppError, fieldErrorsOf, forbidden, unauthenticated } from './errors';
 
 /** What a `:id` in the path names, so the plant-isolation test can point it at another plant's data. */
-export type Resource = 'piece' | 'user' | 'design' | 'reading' | 'job';
+export type Resource = 'piece' | 'user' | 'design' | 'reading' | 'job' | 'import';
 
 export interface RouteContext<B, Q, P> {
   req: Request;

@@ -58,10 +58,7 @@ export function proposeBay(pool: BayCandidate[], o: MatchOptions): BayProposal {
   if (n <= 0) return { feasible: true, order: [], worstMm: 0, toleranceMm: o.toleranceMm, marginMm: o.toleranceMm, differencesMm: [] };
   if (P < n) return fail(`only ${P} suitable pieces for ${n} positions`);
   if (committed > n) return fail(`${committed} pieces are already committed to this bay, more than its ${n} positions`);
-  // prefix count of committed pieces, so "no committed piece skipped between j and i" is O(1)
-  const pre = [0];
-  for (const x of c) pre.push(pre.at(-1)! + (x.committed ? 1 : 0));
-  const skipsCommitted = (j: number, i: number): boolean => pre[i]! - pre[j + 1]! > 0;
+  // A chain may not jump over a committed piece: the inner loops stop at the first committed one.
   const firstCommitted = c.findIndex((x) => x.committed);
   const lastCommitted = c.findLastIndex((x) => x.committed);
   const cost = (j: number, i: number): number => neighbourSteps(c[j]!, c[i]!, z, res);
