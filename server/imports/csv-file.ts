@@ -7,7 +7,8 @@ import { parse } from 'csv-parse';
 import { AppError } from '../http/errors';
 
 export const MAX_COLUMNS = 60;
-export const MAX_FIELD_CHARS = 2000;
+/** A record longer than this is not a camber row (a 5,000-character field is refused at once). */
+export const MAX_RECORD_CHARS = 4000;
 
 const reject = (message: string, fieldErrors?: Record<string, string[]>): AppError => new AppError(422, 'csv_rejected', message, fieldErrors);
 
@@ -27,7 +28,7 @@ export function decodeCsv(bytes: Buffer): string {
 /** Streams the records of the text; each comes with its line number in the file. */
 export async function* csvRecords(text: string, delimiter: string): AsyncGenerator<{ line: number; cells: string[] }> {
   const parser = Readable.from([text]).pipe(
-    parse({ delimiter, bom: true, relax_column_count: false, skip_empty_lines: true, max_record_size: MAX_FIELD_CHARS * 4, info: true, trim: false }),
+    parse({ delimiter, bom: true, relax_column_count: false, skip_empty_lines: true, max_record_size: MAX_RECORD_CHARS, info: true, trim: false }),
   );
   try {
     for await (const rec of parser as AsyncIterable<{ record: string[]; info: { lines: number } }>) {
@@ -43,7 +44,7 @@ export async function* csvRecords(text: string, delimiter: string): AsyncGenerat
       CSV_QUOTE_NOT_CLOSED: 'a quoted field is never closed',
       CSV_RECORD_INCONSISTENT_COLUMNS: 'has a different number of columns from the header',
       CSV_RECORD_INCONSISTENT_FIELDS_LENGTH: 'has a different number of columns from the header',
-      CSV_MAX_RECORD_SIZE: `has a field or line too long to be a camber record (over ${MAX_FIELD_CHARS * 4} characters)`,
+      CSV_MAX_RECORD_SIZE: `has a field or line too long to be a camber record (over ${MAX_RECORD_CHARS} characters)`,
     };
     throw reject(`${where}: ${why[err.code ?? ''] ?? err.message ?? 'could not be read'}`, { file: [`${where}: ${err.code ?? 'unreadable'}`] });
   }

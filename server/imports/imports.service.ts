@@ -45,6 +45,9 @@ export async function uploadCsv(d: Deps, user: SessionUser, file: { buffer: Buff
   const existing: ImportRecord[] = await d.ds.query(`SELECT * FROM csv_import WHERE plant_id = $1 AND kind = $2 AND file_hash = $3`, [user.plantId, kind, hash]);
   if (existing[0]) return { summary: await summary(d, user, existing[0], true), created: false };
   const text = decodeCsv(file.buffer);
+  // The header alone first, so a file in the wrong delimiter is named as such, not as a broken row.
+  const firstLine = text.split(/\r\n|\n|\r/, 1)[0] ?? '';
+  for await (const rec of csvRecords(`${firstLine}\n`, delimiter)) checkHeader(rec.cells, delimiter);
   let header: string[] | null = null;
   let dataRows = 0;
   for await (const rec of csvRecords(text, delimiter)) {

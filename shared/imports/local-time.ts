@@ -2,8 +2,18 @@
 // not exist (the hour skipped when clocks go forward) is refused instead of silently moved, and a time
 // that exists twice (the hour repeated when clocks go back) takes the first.
 
+const formatters = new Map<string, Intl.DateTimeFormat>();
+const formatter = (timeZone: string): Intl.DateTimeFormat => {
+  let f = formatters.get(timeZone);
+  if (!f) {
+    f = new Intl.DateTimeFormat('en-CA', { timeZone, hourCycle: 'h23', year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit', second: '2-digit' });
+    formatters.set(timeZone, f);
+  }
+  return f;
+};
+
 const parts = (utcMs: number, timeZone: string): number[] => {
-  const f = new Intl.DateTimeFormat('en-CA', { timeZone, hourCycle: 'h23', year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit', second: '2-digit' });
+  const f = formatter(timeZone);
   const p = Object.fromEntries(f.formatToParts(new Date(utcMs)).map((x) => [x.type, x.value]));
   return [Number(p.year), Number(p.month), Number(p.day), Number(p.hour), Number(p.minute), Number(p.second)];
 };
