@@ -17,7 +17,7 @@ export const IMPORT_FIELDS: Record<ImportKind, ImportField[]> = {
     { key: 'support', label: 'Where the piece sits', required: false, synonyms: ['support', 'supports', 'location', 'on'] },
     { key: 'sky', label: 'Sky', required: false, synonyms: ['sky', 'weather', 'sun'] },
     { key: 'airTemp', label: 'Air temperature', required: false, synonyms: ['airtemp', 'temperature', 'temp', 'air'] },
-    { key: 'note', label: 'Note', required: false, synonyms: ['note', 'notes', 'comment', 'remarks'] },
+    { key: 'note', label: 'Note', required: false, synonyms: ['note', 'comment', 'remark'] },
   ],
   pieces: [
     { key: 'mark', label: 'Piece mark', required: true, synonyms: ['mark', 'piece', 'piecemark'] },

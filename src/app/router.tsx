@@ -20,6 +20,8 @@ import { ReviewPage, reviewFilters } from './routes/review';
 import { JobsStatusPage } from './routes/jobs-status';
 import { BaysPage } from './routes/bays';
 import { ShippingPage } from './routes/shipping';
+import { ImportsPage } from './routes/imports';
+import { importsQuery } from '../features/imports/api';
 import { baysQuery } from '../features/shipping/api';
 import { boardQuery, jobsStatusQuery, projectionQuery, reviewQuery } from '../features/review/api';
 
@@ -69,6 +71,7 @@ export function createRouter(qc: QueryClient) {
           shouldRevalidate: onlyOnPathChange,
         },
         { path: 'bays', loader: async () => qc.ensureQueryData(baysQuery), element: <BaysPage />, errorElement: <RouteError /> },
+        { path: 'imports', loader: async () => qc.ensureQueryData(importsQuery), element: <ImportsPage />, errorElement: <RouteError /> },
         { path: 'shipping', element: <ShippingPage />, errorElement: <RouteError /> },
         { path: 'admin/jobs', loader: async () => qc.ensureQueryData(jobsStatusQuery), element: <JobsStatusPage />, errorElement: <RouteError /> },
         { path: 'yard', loader: async () => qc.ensureQueryData(yardPackQuery), element: <YardPage />, errorElement: <RouteError /> },

@@ -12,6 +12,7 @@ const NAV: NavItem[] = [
   { to: '/bays', label: 'Bays', roles: ['qc_manager', 'engineer', 'admin', 'viewer'] },
   { to: '/shipping', label: 'Shipping', roles: ['qc_manager', 'engineer', 'admin'] },
   { to: '/tags', label: 'Tags', roles: ['qc_manager', 'engineer', 'admin'] },
+  { to: '/imports', label: 'Imports', roles: ['engineer', 'admin'] },
   { to: '/admin/users', label: 'Users', roles: ['admin'] },
   { to: '/admin/jobs', label: 'Jobs', roles: ['admin', 'engineer'] },
 ];

@@ -50,9 +50,17 @@ export function PiecesPage() {
   const unit = me?.unitSystem ?? 'us';
   return (
     <section aria-labelledby="pieces-title">
-      <h1 id="pieces-title" className="mb-4 text-2xl font-semibold">
-        Pieces
-      </h1>
+      <div className="mb-4 flex flex-wrap items-center gap-3">
+        <h1 id="pieces-title" className="text-2xl font-semibold">
+          Pieces
+        </h1>
+        {me && ['qc_manager', 'engineer', 'admin'].includes(me.role) && (
+          <span className="ml-auto flex gap-2">
+            <a className="btn-quiet" href={`/api/exports/pieces.csv${f.jobId ? `?jobId=${f.jobId}` : ''}`}>Export pieces (CSV)</a>
+            <a className="btn-quiet" href={`/api/exports/readings.csv${f.jobId ? `?jobId=${f.jobId}` : ''}`}>Export readings (CSV)</a>
+          </span>
+        )}
+      </div>
       <div className="mb-4 grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
         <div>
           <label className="label" htmlFor="q">

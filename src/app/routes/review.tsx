@@ -46,9 +46,12 @@ export function ReviewPage() {
   const unit = me?.unitSystem ?? 'us';
   return (
     <section aria-labelledby="review-title">
-      <h1 id="review-title" className="mb-3 text-2xl font-semibold">
-        Review list
-      </h1>
+      <div className="mb-3 flex flex-wrap items-center gap-3">
+        <h1 id="review-title" className="text-2xl font-semibold">
+          Review list
+        </h1>
+        <a className="btn-quiet ml-auto" href={`/api/exports/review.csv?view=${f.view}`}>Export (CSV)</a>
+      </div>
       <div className="mb-3 flex flex-wrap gap-2" role="tablist" aria-label="Which pieces">
         {(['needs-decision', 'all-flagged'] as const).map((v) => (
           <button key={v} type="button" role="tab" aria-selected={f.view === v} className={f.view === v ? 'btn-primary' : 'btn-quiet'} onClick={() => set('view', v === 'needs-decision' ? undefined : v)}>
