@@ -6,6 +6,7 @@ import { audit } from '../audit/audit.service';
 import type { Deps } from '../deps';
 import { AppError, notFound } from '../http/errors';
 import { checkBay } from '../projections/projection.service';
+import { familySettings } from '../settings/settings.repository';
 
 const DAY = 86_400_000;
 
@@ -51,7 +52,8 @@ export async function bayDetail(d: Deps, user: SessionUser, jobId: string, bay: 
   if (inBay.length === 0) throw notFound('the bay');
   const r0 = inBay[0]!;
   const lengthFt = r0.units === 'si' ? (Number(r0.length) * 1000) / 25.4 / 12 : Number(r0.length);
-  const rule = DEFAULT_TOLERANCE_RULES[String(r0.product_type) as keyof typeof DEFAULT_TOLERANCE_RULES] ?? DEFAULT_TOLERANCE_RULES['double-tee'];
+  const fs = await familySettings(d.ds, user.plantId, String(r0.product_type));
+  const rule = { ...(DEFAULT_TOLERANCE_RULES[String(r0.product_type) as keyof typeof DEFAULT_TOLERANCE_RULES] ?? DEFAULT_TOLERANCE_RULES['double-tee']), differentialPer10ft: fs.tolerance.differentialPer10ft, differentialCap: fs.tolerance.differentialCap };
   const toleranceMm = differentialToleranceFor(rule, lengthFt) * 25.4;
   const toCandidate = (r: Record<string, unknown>): BayCandidateDto => ({
     id: String(r.id),

@@ -2,6 +2,7 @@ import type { DataSource, EntityManager } from 'typeorm';
 import type { DesignSpec } from '#shared/api/designs';
 import type { Flag, ProjectionInput, ProjectionResult } from '#shared/projection/project';
 import { dateInZone } from '#shared/yard/schedule';
+import { adoptedFactor, familySettings } from '../settings/settings.repository';
 
 type Db = DataSource | EntityManager;
 
@@ -32,6 +33,19 @@ export async function loadPieceForProjection(db: Db, pieceId: string, now: Date)
        FROM reading WHERE piece_id = $1 AND superseded_by IS NULL ORDER BY taken_at`,
     [pieceId, tz],
   );
+  // The family's settings override the design where the plant set them (method, humidity, band,
+  // tolerance, reading schedule); an adopted growth factor becomes the prior of the calibration.
+  const fs = await familySettings(db, String(r.plant_id), String(r.product_type));
+  const adopted = await adoptedFactor(db, String(r.plant_id), String(r.product_type));
+  const baseSpec = r.spec as DesignSpec;
+  const si = baseSpec.units === 'si';
+  const spec: DesignSpec = {
+    ...baseSpec,
+    method: fs.method ?? baseSpec.method,
+    environment: { relativeHumidity: fs.relativeHumidity ?? baseSpec.environment?.relativeHumidity ?? 70 },
+    band: { release: fs.band.release, growth: fs.band.growth, measurement: si ? fs.band.measurementMm : fs.band.measurementMm / 25.4 },
+    tolerance: { ratePer10ft: fs.tolerance.ratePer10ft, cap: fs.tolerance.cap, capLong: fs.tolerance.capLong ?? undefined, longOver: fs.tolerance.longOver ?? undefined },
+  };
   return {
     id: String(r.id),
     plantId: String(r.plant_id),
@@ -40,7 +54,10 @@ export async function loadPieceForProjection(db: Db, pieceId: string, now: Date)
     bay: (r.bay as string | null) ?? null,
     jobId: String(r.job_id),
     input: {
-      spec: r.spec as DesignSpec,
+      spec,
+      readingAges: fs.readingAges,
+      differential: { ratePer10ft: fs.tolerance.differentialPer10ft, cap: fs.tolerance.differentialCap },
+      prior: adopted ? { elastic: { mean: 1, sd: fs.band.release }, growth: { mean: adopted.mean, sd: Math.max(adopted.sd, 0.05) } } : undefined,
       productType: String(r.product_type),
       castDate: String(r.cast_date),
       releaseDate: String(r.release_date),

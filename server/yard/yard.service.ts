@@ -2,6 +2,7 @@ import type { SessionUser } from '#shared/api/auth';
 import type { YardPack } from '#shared/api/yard';
 import { dateInZone, readingDue } from '#shared/yard/schedule';
 import type { Deps } from '../deps';
+import { familySettings } from '../settings/settings.repository';
 
 /** The pieces still in the yard (not shipped) with their designs and whether a reading is due today. */
 export async function yardPack(d: Deps, user: SessionUser, now = new Date()): Promise<YardPack> {
@@ -18,6 +19,8 @@ export async function yardPack(d: Deps, user: SessionUser, now = new Date()): Pr
     [user.plantId, user.timeZone],
   );
   const designIds = [...new Set(rows.map((r) => String(r.design_id)))];
+  const families = [...new Set(rows.map((r) => String(r.product_type)))];
+  const ages = new Map(await Promise.all(families.map(async (f) => [f, (await familySettings(d.ds, user.plantId, f)).readingAges] as const)));
   const designs: Array<Record<string, unknown>> = designIds.length
     ? await d.ds.query(`SELECT id, code, version, product_type, spec FROM member_design WHERE id = ANY($1::uuid[])`, [designIds])
     : [];
@@ -27,7 +30,7 @@ export async function yardPack(d: Deps, user: SessionUser, now = new Date()): Pr
     timeZone: user.timeZone,
     unitSystem: user.unitSystem,
     pieces: rows.map((r) => {
-      const due = readingDue({ castDate: String(r.cast_date), releaseDate: String(r.release_date), lastReadingDate: (r.last_date as string | null) ?? null, today });
+      const due = readingDue({ castDate: String(r.cast_date), releaseDate: String(r.release_date), lastReadingDate: (r.last_date as string | null) ?? null, today, ages: ages.get(String(r.product_type)) });
       return {
         id: String(r.id),
         mark: String(r.mark),

@@ -45,6 +45,8 @@ export interface ProjectionInput {
   today: string;
   readingAges?: number[];
   prior?: { elastic: FactorPrior; growth: FactorPrior };
+  /** Differential tolerance rule between neighbours (in per 10 ft, cap in); the product type's default otherwise. */
+  differential?: { ratePer10ft: number; cap: number };
   unit: 'in' | 'mm';
 }
 
@@ -188,7 +190,8 @@ export function projectPiece(p: ProjectionInput): ProjectionResult {
       flags.push({ kind: 'reading-in-doubt', severity: 1, reason: `Camber changed ${change >= 0 ? '+' : '−'}${fmt(Math.abs(change))} between ${a.takenAt.slice(0, 10)} and ${b.takenAt.slice(0, 10)}; creep explains ${predictedChange >= 0 ? '+' : '−'}${fmt(Math.abs(predictedChange))}.` });
     }
   }
-  const rule = DEFAULT_TOLERANCE_RULES[(p.productType as keyof typeof DEFAULT_TOLERANCE_RULES) ?? 'double-tee'] ?? DEFAULT_TOLERANCE_RULES['double-tee'];
+  const base = DEFAULT_TOLERANCE_RULES[(p.productType as keyof typeof DEFAULT_TOLERANCE_RULES) ?? 'double-tee'] ?? DEFAULT_TOLERANCE_RULES['double-tee'];
+  const rule = p.differential ? { ...base, differentialPer10ft: p.differential.ratePer10ft, differentialCap: p.differential.cap } : base;
   return {
     method: parsed.method,
     readingsUsed: cal.used,

@@ -15,11 +15,14 @@ let t: TestApp;
 let a: Awaited<ReturnType<typeof buildPlantWithUsers>>;
 let b: Awaited<ReturnType<typeof buildPlantWithUsers>>;
 let routes: RouteDef[];
+const imports = new Map<string, string>();
 
 /** Valid bodies for routes that name a record, so the plant check is reached after validation. */
 const VALID_BODY: Record<string, unknown> = {
   'patch /users/:id': { role: 'inspector' },
   'post /pieces/:id/decisions': { kind: 'remeasure', comment: '', version: 1 },
+  'post /imports/:id/preview': { mapping: {} },
+  'post /imports/:id/commit': { mapping: {} },
 };
 
 beforeAll(async () => {
@@ -27,6 +30,13 @@ beforeAll(async () => {
   a = await buildPlantWithUsers(t.ds);
   b = await buildPlantWithUsers(t.ds);
   routes = buildRoutes(t.deps);
+  for (const p of [a, b]) {
+    const [row] = await t.ds.query(
+      `INSERT INTO csv_import (plant_id, kind, file_hash, filename, size, content, delimiter, header, created_by) VALUES ($1, 'readings', $2, 'x.csv', 1, 'mark\nX', ',', '["mark"]', $3) RETURNING id`,
+      [p.plantId, `hash-${p.plantId}`, p.users.engineer.id],
+    );
+    imports.set(p.plantId, row.id);
+  }
 });
 afterAll(() => t.close());
 
@@ -39,6 +49,8 @@ const idFor = (r: RouteDef, plant: typeof a): string => {
       return plant.piece.id;
     case 'reading':
       return plant.reading.id;
+    case 'import':
+      return imports.get(plant.plantId)!;
     default:
       throw new Error(`add an id for resource ${r.resource}`);
   }
