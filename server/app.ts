@@ -26,13 +26,14 @@ import { reportRoutes } from './reports/reports.routes';
 import { importRoutes } from './imports/imports.routes';
 import { exportRoutes } from './exports/exports.routes';
 import { settingsRoutes } from './settings/settings.routes';
+import { designRoutes } from './designs/designs.routes';
 
 export const CLIENT_DIR = resolve(ROOT, '.build', 'client');
 
 /** The whole route table: the API, the OpenAPI document and the role matrix test all read it. */
 export function buildRoutes(d: Deps): RouteDef[] {
   const table: RouteDef[] = [];
-  table.push(...authRoutes(d), ...userRoutes(d), ...pieceRoutes(d), ...readingRoutes(d), ...yardRoutes(d), ...reviewRoutes(d), ...boardRoutes(d), ...bayRoutes(d), ...shippingRoutes(d), ...reportRoutes(d), ...importRoutes(d), ...exportRoutes(d), ...settingsRoutes(d), ...camberRoutes(), ...systemRoutes(d, () => table));
+  table.push(...authRoutes(d), ...userRoutes(d), ...pieceRoutes(d), ...readingRoutes(d), ...yardRoutes(d), ...reviewRoutes(d), ...boardRoutes(d), ...bayRoutes(d), ...shippingRoutes(d), ...reportRoutes(d), ...importRoutes(d), ...exportRoutes(d), ...settingsRoutes(d), ...designRoutes(d), ...camberRoutes(), ...systemRoutes(d, () => table));
   return table;
 }
 

@@ -15,3 +15,44 @@ export const designSummarySchema = z.object({
   spec: z.unknown(),
 });
 export type DesignSummary = z.infer<typeof designSummarySchema>;
+
+export const designInputSchema = z.object({
+  code: z.string().trim().min(1, 'give the design a code').max(40),
+  name: z.string().trim().min(1, 'give the design a name').max(120),
+  spec: designSpecSchema,
+});
+export type DesignInput = z.input<typeof designInputSchema>;
+
+export const designUpdateSchema = z.object({ name: z.string().trim().min(1).max(120), spec: designSpecSchema });
+export const designCopySchema = z.object({ code: z.string().trim().min(1).max(40), name: z.string().trim().min(1).max(120) });
+export const reassignSchema = z.object({ pieceIds: z.array(z.string().uuid()).min(1).max(500), designId: z.string().uuid() });
+
+export const designRowSchema = z.object({
+  id: z.string().uuid(),
+  code: z.string(),
+  name: z.string(),
+  productType: z.string(),
+  version: z.number().int(),
+  pieces: z.number().int(),
+  spec: z.unknown(),
+  createdAt: z.string(),
+});
+export type DesignRow = z.infer<typeof designRowSchema>;
+
+export const jobInputSchema = z.object({ number: z.string().trim().min(1).max(40), name: z.string().trim().min(1).max(120) });
+export const bulkPiecesSchema = z
+  .object({
+    jobId: z.string().uuid(),
+    designId: z.string().uuid(),
+    markPattern: z.string().trim().min(1).max(40).refine((p) => p.includes('{n}'), 'put {n} where the number goes, e.g. DT-{n}'),
+    start: z.number().int().min(0).max(99999),
+    count: z.number().int().min(1).max(500),
+    bed: z.string().trim().max(40).optional(),
+    castDate: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'use the form YYYY-MM-DD'),
+    releaseDate: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'use the form YYYY-MM-DD').optional(),
+    shipDate: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'use the form YYYY-MM-DD').optional(),
+    erectionDate: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'use the form YYYY-MM-DD').optional(),
+    bay: z.string().trim().max(60).optional(),
+  })
+  .refine((v) => !v.releaseDate || v.releaseDate >= v.castDate, { path: ['releaseDate'], message: 'release cannot come before casting' });
+export type BulkPiecesInput = z.input<typeof bulkPiecesSchema>;

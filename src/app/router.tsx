@@ -21,6 +21,9 @@ import { JobsStatusPage } from './routes/jobs-status';
 import { BaysPage } from './routes/bays';
 import { ShippingPage } from './routes/shipping';
 import { ImportsPage } from './routes/imports';
+import { SettingsPage } from './routes/settings';
+import { CalibrationPage } from './routes/calibration';
+import { calibrationQuery, settingsQuery } from '../features/imports/settings-api';
 import { importsQuery } from '../features/imports/api';
 import { baysQuery } from '../features/shipping/api';
 import { boardQuery, jobsStatusQuery, projectionQuery, reviewQuery } from '../features/review/api';
@@ -72,6 +75,8 @@ export function createRouter(qc: QueryClient) {
         },
         { path: 'bays', loader: async () => qc.ensureQueryData(baysQuery), element: <BaysPage />, errorElement: <RouteError /> },
         { path: 'imports', loader: async () => qc.ensureQueryData(importsQuery), element: <ImportsPage />, errorElement: <RouteError /> },
+        { path: 'settings', loader: async () => qc.ensureQueryData(settingsQuery), element: <SettingsPage />, errorElement: <RouteError /> },
+        { path: 'calibration', loader: async () => qc.ensureQueryData(calibrationQuery), element: <CalibrationPage />, errorElement: <RouteError /> },
         { path: 'shipping', element: <ShippingPage />, errorElement: <RouteError /> },
         { path: 'admin/jobs', loader: async () => qc.ensureQueryData(jobsStatusQuery), element: <JobsStatusPage />, errorElement: <RouteError /> },
         { path: 'yard', loader: async () => qc.ensureQueryData(yardPackQuery), element: <YardPage />, errorElement: <RouteError /> },

@@ -3,6 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { buildRoutes } from '#server/app';
 import type { RouteDef } from '#server/http/route';
 import { ROLES, type Role } from '#shared/api/roles';
+import { DEMO_DESIGNS } from '#seed/designs';
 import { sessionHeaders, testApp, type TestApp } from '../helpers/app';
 import { buildPlantWithUsers } from '../helpers/factories';
 
@@ -16,6 +17,7 @@ let a: Awaited<ReturnType<typeof buildPlantWithUsers>>;
 let b: Awaited<ReturnType<typeof buildPlantWithUsers>>;
 let routes: RouteDef[];
 const imports = new Map<string, string>();
+const designs = new Map<string, string>();
 
 /** Valid bodies for routes that name a record, so the plant check is reached after validation. */
 const VALID_BODY: Record<string, unknown> = {
@@ -23,6 +25,8 @@ const VALID_BODY: Record<string, unknown> = {
   'post /pieces/:id/decisions': { kind: 'remeasure', comment: '', version: 1 },
   'post /imports/:id/preview': { mapping: {} },
   'post /imports/:id/commit': { mapping: {} },
+  'put /designs/:id': { name: 'x', spec: DEMO_DESIGNS[0]!.spec },
+  'post /designs/:id/copy': { code: 'COPY-1', name: 'copy' },
 };
 
 beforeAll(async () => {
@@ -36,6 +40,7 @@ beforeAll(async () => {
       [p.plantId, `hash-${p.plantId}`, p.users.engineer.id],
     );
     imports.set(p.plantId, row.id);
+    designs.set(p.plantId, (await t.ds.query(`SELECT design_id FROM piece WHERE id = $1`, [p.piece.id]))[0].design_id);
   }
 });
 afterAll(() => t.close());
@@ -51,6 +56,8 @@ const idFor = (r: RouteDef, plant: typeof a): string => {
       return plant.reading.id;
     case 'import':
       return imports.get(plant.plantId)!;
+    case 'design':
+      return designs.get(plant.plantId)!;
     default:
       throw new Error(`add an id for resource ${r.resource}`);
   }

@@ -13,6 +13,8 @@ const NAV: NavItem[] = [
   { to: '/shipping', label: 'Shipping', roles: ['qc_manager', 'engineer', 'admin'] },
   { to: '/tags', label: 'Tags', roles: ['qc_manager', 'engineer', 'admin'] },
   { to: '/imports', label: 'Imports', roles: ['engineer', 'admin'] },
+  { to: '/calibration', label: 'Calibration', roles: ['qc_manager', 'engineer', 'admin'] },
+  { to: '/settings', label: 'Settings', roles: ['qc_manager', 'engineer', 'admin'] },
   { to: '/admin/users', label: 'Users', roles: ['admin'] },
   { to: '/admin/jobs', label: 'Jobs', roles: ['admin', 'engineer'] },
 ];
