@@ -56,3 +56,16 @@ export const bulkPiecesSchema = z
   })
   .refine((v) => !v.releaseDate || v.releaseDate >= v.castDate, { path: ['releaseDate'], message: 'release cannot come before casting' });
 export type BulkPiecesInput = z.input<typeof bulkPiecesSchema>;
+
+/** What a new design starts from: a plain rectangular beam, to be changed to the real member. */
+export const STARTER_SPEC: DesignSpec = {
+  units: 'us',
+  length: 30,
+  productType: 'beam',
+  section: { shape: 'rectangle', width: 16, height: 24 },
+  concrete: { fci: 4, fc: 6, unitWeight: 150, modulus: 'aci318', curing: 'steam', releaseAgeDays: 1 },
+  strands: [{ count: 8, area: 0.153, profile: 'straight', eccMid: 8 }],
+  prestress: { jackingStress: 202.5 },
+  supports: { storage: [{ fromAgeDays: 1, overhang: 1.5 }] },
+  method: 'aashto',
+};

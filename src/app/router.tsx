@@ -22,6 +22,8 @@ import { BaysPage } from './routes/bays';
 import { ShippingPage } from './routes/shipping';
 import { ImportsPage } from './routes/imports';
 import { SettingsPage } from './routes/settings';
+import { DesignsPage, DesignEditPage } from './routes/designs';
+import { designsQuery } from '../features/designs/api';
 import { CalibrationPage } from './routes/calibration';
 import { calibrationQuery, settingsQuery } from '../features/imports/settings-api';
 import { importsQuery } from '../features/imports/api';
@@ -75,6 +77,9 @@ export function createRouter(qc: QueryClient) {
         },
         { path: 'bays', loader: async () => qc.ensureQueryData(baysQuery), element: <BaysPage />, errorElement: <RouteError /> },
         { path: 'imports', loader: async () => qc.ensureQueryData(importsQuery), element: <ImportsPage />, errorElement: <RouteError /> },
+        { path: 'designs', loader: async () => Promise.all([qc.ensureQueryData(designsQuery), qc.ensureQueryData(jobsQuery)]), element: <DesignsPage />, errorElement: <RouteError /> },
+        { path: 'designs/new', element: <DesignEditPage />, errorElement: <RouteError /> },
+        { path: 'designs/:id/edit', element: <DesignEditPage />, errorElement: <RouteError /> },
         { path: 'settings', loader: async () => qc.ensureQueryData(settingsQuery), element: <SettingsPage />, errorElement: <RouteError /> },
         { path: 'calibration', loader: async () => qc.ensureQueryData(calibrationQuery), element: <CalibrationPage />, errorElement: <RouteError /> },
         { path: 'shipping', element: <ShippingPage />, errorElement: <RouteError /> },

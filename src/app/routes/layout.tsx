@@ -12,6 +12,7 @@ const NAV: NavItem[] = [
   { to: '/bays', label: 'Bays', roles: ['qc_manager', 'engineer', 'admin', 'viewer'] },
   { to: '/shipping', label: 'Shipping', roles: ['qc_manager', 'engineer', 'admin'] },
   { to: '/tags', label: 'Tags', roles: ['qc_manager', 'engineer', 'admin'] },
+  { to: '/designs', label: 'Designs', roles: ['engineer', 'admin'] },
   { to: '/imports', label: 'Imports', roles: ['engineer', 'admin'] },
   { to: '/calibration', label: 'Calibration', roles: ['qc_manager', 'engineer', 'admin'] },
   { to: '/settings', label: 'Settings', roles: ['qc_manager', 'engineer', 'admin'] },
