@@ -25,9 +25,13 @@ export function decodeCsv(bytes: Buffer): string {
   return text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
 }
 
-/** Streams the records of the text; each comes with its line number in the file. */
+const CHUNK = 64 * 1024;
+
+/** Streams the records of the text in 64 KiB pieces; each record comes with its line number in the file. */
 export async function* csvRecords(text: string, delimiter: string): AsyncGenerator<{ line: number; cells: string[] }> {
-  const parser = Readable.from([text]).pipe(
+  const chunks: string[] = [];
+  for (let i = 0; i < text.length; i += CHUNK) chunks.push(text.slice(i, i + CHUNK));
+  const parser = Readable.from(chunks).pipe(
     parse({ delimiter, bom: true, relax_column_count: false, skip_empty_lines: true, max_record_size: MAX_RECORD_CHARS, info: true, trim: false }),
   );
   try {

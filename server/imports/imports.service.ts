@@ -52,7 +52,7 @@ export async function uploadCsv(d: Deps, user: SessionUser, file: { buffer: Buff
   let dataRows = 0;
   for await (const rec of csvRecords(text, delimiter)) {
     if (!header) header = checkHeader(rec.cells, delimiter);
-    else dataRows++;
+    else if (++dataRows > 0) break; // one data row is enough here; the commit reads every row
   }
   if (!header || dataRows === 0) throw new AppError(422, 'csv_rejected', 'the file has no data rows');
   // The original name is kept as escaped metadata only; the content is stored under our own id.
@@ -186,7 +186,16 @@ export async function commitImport(d: Deps, user: SessionUser, id: string, mappi
 async function insertReadings(tx: EntityManager, user: SessionUser, importId: string, rows: Array<{ line: number; row: ReadingRow }>): Promise<number> {
   // A reading of the same piece at the same time already in the database is the same reading: skipped.
   const pieceIds = [...new Set(rows.map((r) => r.row.pieceId))];
-  const have: Array<{ piece_id: string; taken_at: Date }> = pieceIds.length ? await tx.query(`SELECT piece_id, taken_at FROM reading WHERE piece_id = ANY($1::uuid[])`, [pieceIds]) : [];
+  let from = Infinity;
+  let to = -Infinity;
+  for (const r of rows) {
+    const t = r.row.takenAt.getTime();
+    if (t < from) from = t;
+    if (t > to) to = t;
+  }
+  const have: Array<{ piece_id: string; taken_at: Date }> = pieceIds.length
+    ? await tx.query(`SELECT piece_id, taken_at FROM reading WHERE piece_id = ANY($1::uuid[]) AND taken_at BETWEEN $2 AND $3`, [pieceIds, new Date(from), new Date(to)])
+    : [];
   const known = new Set(have.map((h) => `${h.piece_id}|${new Date(h.taken_at).toISOString()}`));
   const fresh = rows.filter((r) => !known.has(`${r.row.pieceId}|${r.row.takenAt.toISOString()}`));
   let added = 0;
