@@ -132,8 +132,10 @@ export async function previewImport(d: Deps, user: SessionUser, id: string, mapp
   const imp = await loadImport(d, user, id);
   const c = await checkAll(d, user, imp, mapping);
   if (saveAs) await saveMapping(d, user, imp.kind, saveAs, mapping);
+  // Times as the plant reads them: in its own time zone, with the zone named.
+  const local = new Intl.DateTimeFormat('en-CA', { timeZone: user.timeZone, dateStyle: 'short', timeStyle: 'short', hourCycle: 'h23' });
   const show = (row: ReadingRow | PieceRow): Record<string, string> =>
-    Object.fromEntries(Object.entries(row).map(([k, v]) => [k, v instanceof Date ? v.toISOString() : v === null ? '' : String(v)]));
+    Object.fromEntries(Object.entries(row).map(([k, v]) => [k, v instanceof Date ? `${local.format(v)} (${user.timeZone})` : v === null ? '' : String(v)]));
   return {
     total: c.total,
     valid: c.valid.length,
