@@ -8,28 +8,18 @@ import { LoginPage } from './routes/login';
 import { ForgotPasswordPage } from './routes/forgot-password';
 import { ResetPasswordPage } from './routes/reset-password';
 import { PiecesPage, listFilters } from './routes/pieces';
-import { PiecePage } from './routes/piece';
-import { UsersPage } from './routes/users';
 import { RouteError } from './routes/route-error';
 import { YardPage } from './routes/yard';
 import { YardPiecePage } from './routes/yard-piece';
-import { TagsPage } from './routes/tags';
 import { yardPackQuery } from '../features/yard/pack';
-import { BoardPage } from './routes/board';
-import { ReviewPage, reviewFilters } from './routes/review';
-import { JobsStatusPage } from './routes/jobs-status';
-import { BaysPage } from './routes/bays';
-import { ShippingPage } from './routes/shipping';
-import { ImportsPage } from './routes/imports';
-import { SettingsPage } from './routes/settings';
-import { DesignsPage, DesignEditPage } from './routes/designs';
+import { reviewFilters } from './routes/review-filters';
 import { designsQuery } from '../features/designs/api';
-import { CalibrationPage } from './routes/calibration';
 import { calibrationQuery, settingsQuery } from '../features/imports/settings-api';
 import { importsQuery } from '../features/imports/api';
 import { baysQuery } from '../features/shipping/api';
 import { boardQuery, jobsStatusQuery, projectionQuery, reviewQuery } from '../features/review/api';
 
+// Office pages are loaded when first opened, so the yard screens start with a small bundle.
 const onlyOnPathChange = ({ currentUrl, nextUrl }: { currentUrl: URL; nextUrl: URL }): boolean => currentUrl.pathname !== nextUrl.pathname;
 
 export function createRouter(qc: QueryClient) {
@@ -64,33 +54,33 @@ export function createRouter(qc: QueryClient) {
         {
           path: 'pieces/:id',
           loader: async ({ params }) => Promise.all([qc.ensureQueryData(pieceQuery(params.id!)), qc.ensureQueryData(projectionQuery(params.id!))]),
-          element: <PiecePage />,
+          lazy: async () => ({ Component: (await import('./routes/piece')).PiecePage }),
           errorElement: <RouteError />,
         },
-        { path: 'board', loader: async () => qc.ensureQueryData(boardQuery), element: <BoardPage />, errorElement: <RouteError /> },
+        { path: 'board', loader: async () => qc.ensureQueryData(boardQuery), lazy: async () => ({ Component: (await import('./routes/board')).BoardPage }), errorElement: <RouteError /> },
         {
           path: 'review',
           loader: async ({ request }) => Promise.all([qc.ensureQueryData(reviewQuery(reviewFilters(new URL(request.url).searchParams))), qc.ensureQueryData(jobsQuery)]),
-          element: <ReviewPage />,
+          lazy: async () => ({ Component: (await import('./routes/review')).ReviewPage }),
           errorElement: <RouteError />,
           shouldRevalidate: onlyOnPathChange,
         },
-        { path: 'bays', loader: async () => qc.ensureQueryData(baysQuery), element: <BaysPage />, errorElement: <RouteError /> },
-        { path: 'imports', loader: async () => qc.ensureQueryData(importsQuery), element: <ImportsPage />, errorElement: <RouteError /> },
-        { path: 'designs', loader: async () => Promise.all([qc.ensureQueryData(designsQuery), qc.ensureQueryData(jobsQuery)]), element: <DesignsPage />, errorElement: <RouteError /> },
-        { path: 'designs/new', element: <DesignEditPage />, errorElement: <RouteError /> },
-        { path: 'designs/:id/edit', element: <DesignEditPage />, errorElement: <RouteError /> },
-        { path: 'settings', loader: async () => qc.ensureQueryData(settingsQuery), element: <SettingsPage />, errorElement: <RouteError /> },
-        { path: 'calibration', loader: async () => qc.ensureQueryData(calibrationQuery), element: <CalibrationPage />, errorElement: <RouteError /> },
-        { path: 'shipping', element: <ShippingPage />, errorElement: <RouteError /> },
-        { path: 'admin/jobs', loader: async () => qc.ensureQueryData(jobsStatusQuery), element: <JobsStatusPage />, errorElement: <RouteError /> },
+        { path: 'bays', loader: async () => qc.ensureQueryData(baysQuery), lazy: async () => ({ Component: (await import('./routes/bays')).BaysPage }), errorElement: <RouteError /> },
+        { path: 'imports', loader: async () => qc.ensureQueryData(importsQuery), lazy: async () => ({ Component: (await import('./routes/imports')).ImportsPage }), errorElement: <RouteError /> },
+        { path: 'designs', loader: async () => Promise.all([qc.ensureQueryData(designsQuery), qc.ensureQueryData(jobsQuery)]), lazy: async () => ({ Component: (await import('./routes/designs')).DesignsPage }), errorElement: <RouteError /> },
+        { path: 'designs/new', lazy: async () => ({ Component: (await import('./routes/designs')).DesignEditPage }), errorElement: <RouteError /> },
+        { path: 'designs/:id/edit', lazy: async () => ({ Component: (await import('./routes/designs')).DesignEditPage }), errorElement: <RouteError /> },
+        { path: 'settings', loader: async () => qc.ensureQueryData(settingsQuery), lazy: async () => ({ Component: (await import('./routes/settings')).SettingsPage }), errorElement: <RouteError /> },
+        { path: 'calibration', loader: async () => qc.ensureQueryData(calibrationQuery), lazy: async () => ({ Component: (await import('./routes/calibration')).CalibrationPage }), errorElement: <RouteError /> },
+        { path: 'shipping', lazy: async () => ({ Component: (await import('./routes/shipping')).ShippingPage }), errorElement: <RouteError /> },
+        { path: 'admin/jobs', loader: async () => qc.ensureQueryData(jobsStatusQuery), lazy: async () => ({ Component: (await import('./routes/jobs-status')).JobsStatusPage }), errorElement: <RouteError /> },
         { path: 'yard', loader: async () => qc.ensureQueryData(yardPackQuery), element: <YardPage />, errorElement: <RouteError /> },
         { path: 'yard/pieces/:id', loader: async () => qc.ensureQueryData(yardPackQuery), element: <YardPiecePage />, errorElement: <RouteError /> },
-        { path: 'tags', loader: async () => qc.ensureQueryData(jobsQuery), element: <TagsPage />, errorElement: <RouteError /> },
+        { path: 'tags', loader: async () => qc.ensureQueryData(jobsQuery), lazy: async () => ({ Component: (await import('./routes/tags')).TagsPage }), errorElement: <RouteError /> },
         {
           path: 'admin/users',
           loader: async () => Promise.all([qc.ensureQueryData(usersQuery), qc.ensureQueryData(jobsQuery)]),
-          element: <UsersPage />,
+          lazy: async () => ({ Component: (await import('./routes/users')).UsersPage }),
           errorElement: <RouteError />,
         },
       ],

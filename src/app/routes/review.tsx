@@ -1,7 +1,7 @@
 import { keepPreviousData, useQuery } from '@tanstack/react-query';
 import { Link } from 'react-router';
 import { useUrlParams } from '../../lib/use-url-params';
-import { REVIEW_SORTS, type ReviewQuery } from '#shared/api/review';
+import { reviewFilters } from './review-filters';
 import { FLAG_KINDS, FLAG_LABELS } from '#shared/projection/project';
 import { PRODUCT_TYPES } from '#shared/camber/schema';
 import { Caution } from '../../components/ui/caution';
@@ -12,21 +12,6 @@ import { reviewQuery } from '../../features/review/api';
 import { FlagList } from '../../features/review/components/flag-list';
 import { camberText } from '../../lib/format';
 
-export function reviewFilters(sp: URLSearchParams): ReviewQuery {
-  const get = (k: string): string | undefined => sp.get(k) || undefined;
-  const sort = get('sort');
-  return {
-    view: get('view') === 'all-flagged' ? 'all-flagged' : 'needs-decision',
-    jobId: get('jobId'),
-    productType: get('productType'),
-    flag: (FLAG_KINDS as readonly string[]).includes(get('flag') ?? '') ? (get('flag') as ReviewQuery['flag']) : undefined,
-    bay: get('bay'),
-    sort: (REVIEW_SORTS as readonly string[]).includes(sort ?? '') ? (sort as ReviewQuery['sort']) : 'urgency',
-    dir: 'asc',
-    page: Number(get('page') ?? 1) || 1,
-    pageSize: 50,
-  };
-}
 
 /** The QC manager's morning list: flagged pieces by urgency, with the evidence in each row. */
 export function ReviewPage() {
