@@ -56,7 +56,14 @@ export const errorMiddleware: ErrorRequestHandler = (err, req, res, _next) => {
   const pgErr = err as PgError;
   if (pgErr.code === '23505') return send(409, { code: ERROR_CODES.conflict, message: 'a record with the same key already exists' });
   if (pgErr.code === '22P02' || pgErr.code === '22021') return send(400, { code: ERROR_CODES.validation, message: 'a value has the wrong form' });
-  if (pgErr.code === 'ECONNREFUSED' || pgErr.code === '57P01' || pgErr.code === '57P03') {
+  // Connection failures: SQLSTATE class 08, shutdown 57P01–57P03, a refused or reset socket, or the
+  // driver's "Connection terminated" (node-postgres gives that one no code, so its text is the signal).
+  const driver = (err as { driverError?: PgError & { message?: string } }).driverError ?? pgErr;
+  const lost =
+    ['ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', '57P01', '57P02', '57P03'].includes(driver.code ?? '') ||
+    (driver.code ?? '').startsWith('08') ||
+    /Connection terminated|timeout exceeded when trying to connect/.test((driver as { message?: string }).message ?? '');
+  if (lost) {
     return send(503, { code: ERROR_CODES.unavailable, message: 'the database is not reachable; try again shortly' });
   }
   req.log?.error({ err }, 'unhandled error');
