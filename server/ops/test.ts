@@ -52,6 +52,7 @@ async function main(): Promise<number> {
   await step('typecheck', () => gate(bin('tsc'), ['--noEmit', '-p', 'tsconfig.json']))();
   await step('lint', () => gate('npm', ['run', '--silent', 'lint']))();
   await step('unit and integration tests', () => gate(bin('vitest'), ['run'], { env }))();
+  await step('fault suite', () => gate(bin('vitest'), ['run', '--config', 'tests/faults/vitest.config.ts'], { env }))();
   await step('client build', () => gate(bin('vite'), ['build', '--logLevel', 'warn']))();
   await step('end-to-end tests', async () => {
     await freshE2eDatabase(e2eUrl);
