@@ -11,4 +11,5 @@ if [ ! -x node_modules/.bin/tsx ] || [ package-lock.json -nt node_modules/.packa
   echo "Installing npm packages (npm ci)…"
   npm ci --no-audit --no-fund
 fi
-exec node_modules/.bin/tsx "server/ops/${cmd}.ts" "$@"
+# node with the tsx loader (not the tsx wrapper process), so SIGTERM and SIGINT reach our own handlers.
+exec node --import tsx "server/ops/${cmd}.ts" "$@"
