@@ -4,7 +4,7 @@ import { startFakeInbox } from '../mail/fake-inbox';
 import { startServer, stopOnSignals } from '../main';
 import { createLogger } from '../logger';
 import { createMailer } from '../mail/mailer';
-import { recomputeAll } from '../projections/projection.service';
+import { recomputeAll, unprojectedPieceIds } from '../projections/projection.service';
 import { DEMO_PASSWORD, DEMO_USERS } from '#seed/designs';
 import { seedDemo } from '#seed/demo';
 import { migrate, prepareDatabase, withDataSource } from './database';
@@ -22,10 +22,15 @@ async function main(): Promise<void> {
   if (ran.length) console.log(`Migrations applied: ${ran.join(', ')}`);
   const seeded = await withDataSource(cfg.databaseUrl, (ds) => seedDemo(ds, { bcryptCost: cfg.BCRYPT_COST }));
   console.log(seeded.created ? 'Demo scenario loaded.' : 'Demo scenario already present.');
-  if (seeded.created) {
-    const r = await withDataSource(cfg.databaseUrl, (ds) => recomputeAll({ ds, cfg, mailer: createMailer(cfg), log: createLogger('warn') }, { quiet: true }));
-    console.log(`Projections computed for ${r.done} pieces${r.failed ? ` (${r.failed} failed)` : ''}.`);
-  }
+  // Pieces never projected (a new demo, or a database from before projections) get theirs now, quietly;
+  // after that the queue keeps them current.
+  const missing = await withDataSource(cfg.databaseUrl, async (ds) => {
+    const deps = { ds, cfg, mailer: createMailer(cfg), log: createLogger('warn') };
+    const ids = await unprojectedPieceIds(deps);
+    if (ids.length) await recomputeAll(deps, { quiet: true });
+    return ids.length;
+  });
+  if (missing) console.log(`Projections computed for ${missing} pieces.`);
 
   let inbox: { stop: () => Promise<void> } | null = null;
   if (cfg.SMTP_HOST === '127.0.0.1' && !cfg.SMTP_USER) {

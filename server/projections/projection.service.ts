@@ -60,6 +60,12 @@ export async function checkBay(d: Deps, plantId: string, jobId: string, bay: str
   return raised;
 }
 
+/** Active pieces that have never been projected (a database from before the projections existed). */
+export async function unprojectedPieceIds(d: Deps): Promise<string[]> {
+  const rows: Array<{ id: string }> = await d.ds.query(`SELECT p.id FROM piece p LEFT JOIN projection pr ON pr.piece_id = p.id WHERE p.status <> 'shipped' AND pr.piece_id IS NULL`);
+  return rows.map((r) => r.id);
+}
+
 /** Pieces the nightly run recomputes: every piece not yet shipped. */
 export async function activePieceIds(d: Deps, plantId?: string): Promise<string[]> {
   const rows: Array<{ id: string }> = await d.ds.query(
