@@ -27,28 +27,28 @@ export async function reviewList(ds: DataSource, user: SessionUser, q: ReviewQue
   if (q.productType) add('d.product_type = ?', q.productType);
   if (q.bay) add('p.bay = ?', q.bay);
   if (q.flag) add('EXISTS (SELECT 1 FROM piece_flag x WHERE x.piece_id = p.id AND x.cleared_at IS NULL AND x.kind = ?)', q.flag);
-  const decisionGate =
-    q.view === 'needs-decision'
-      ? `AND EXISTS (SELECT 1 FROM piece_flag x WHERE x.piece_id = p.id AND x.cleared_at IS NULL AND x.severity >= 2
-                      AND (ld.decided_at IS NULL OR x.raised_at > ld.decided_at))`
-      : '';
+  const decisionGate = q.view === 'needs-decision' ? 'AND fl.last_serious IS NOT NULL AND (ld.decided_at IS NULL OR fl.last_serious > ld.decided_at)' : '';
   args.push(q.pageSize, (q.page - 1) * q.pageSize);
+  // Start from the active flags (a partial index), not from every piece of the plant; order and page on
+  // cheap columns first, then build the evidence (flags, projection, decision) for the page's rows only.
   const rows: Array<Record<string, unknown>> = await ds.query(
-    `WITH base AS (
-       SELECT p.id, p.mark, j.number AS job_number, d.product_type, p.bay, p.status, p.ship_date::text AS ship_date,
-              pr.latest_mm, pr.latest_expected_mm, pr.latest_low_mm, pr.latest_high_mm, pr.ship_mm, pr.ship_low_mm, pr.ship_high_mm,
-              ld.kind AS decision_kind, ld.decided_at,
-              (SELECT max(severity) FROM piece_flag x WHERE x.piece_id = p.id AND x.cleared_at IS NULL) AS max_severity,
-              (SELECT json_agg(json_build_object('kind', x.kind, 'severity', x.severity, 'reason', x.reason, 'raisedAt', x.raised_at) ORDER BY x.severity DESC)
-                 FROM piece_flag x WHERE x.piece_id = p.id AND x.cleared_at IS NULL) AS flags
-         FROM piece p
-         JOIN job j ON j.id = p.job_id
+    `WITH flagged AS (
+       SELECT f.piece_id, max(f.severity) AS max_severity, max(f.raised_at) FILTER (WHERE f.severity >= 2) AS last_serious
+         FROM piece_flag f WHERE f.plant_id = $1 AND f.cleared_at IS NULL GROUP BY f.piece_id),
+     base AS (
+       SELECT p.id, p.mark, p.job_id, d.product_type, p.bay, p.status, p.ship_date::text AS ship_date, fl.max_severity, ld.kind AS decision_kind, ld.decided_at
+         FROM flagged fl
+         JOIN piece p ON p.id = fl.piece_id
          JOIN member_design d ON d.id = p.design_id
-         LEFT JOIN projection pr ON pr.piece_id = p.id
          LEFT JOIN LATERAL (SELECT kind, decided_at FROM decision WHERE piece_id = p.id ORDER BY decided_at DESC LIMIT 1) ld ON true
-        WHERE ${where.join(' AND ')}
-          AND EXISTS (SELECT 1 FROM piece_flag x WHERE x.piece_id = p.id AND x.cleared_at IS NULL) ${decisionGate})
-     SELECT *, count(*) OVER () AS total FROM base ORDER BY ${ORDER[q.sort]} LIMIT $${args.length - 1} OFFSET $${args.length}`,
+        WHERE ${where.join(' AND ')} ${decisionGate}),
+     page AS (SELECT *, count(*) OVER () AS total FROM base ORDER BY ${ORDER[q.sort]} LIMIT $${args.length - 1} OFFSET $${args.length})
+     SELECT page.*, j.number AS job_number,
+            pr.latest_mm, pr.latest_expected_mm, pr.latest_low_mm, pr.latest_high_mm, pr.ship_mm, pr.ship_low_mm, pr.ship_high_mm,
+            (SELECT json_agg(json_build_object('kind', x.kind, 'severity', x.severity, 'reason', x.reason, 'raisedAt', x.raised_at) ORDER BY x.severity DESC)
+               FROM piece_flag x WHERE x.piece_id = page.id AND x.cleared_at IS NULL) AS flags
+       FROM page JOIN job j ON j.id = page.job_id LEFT JOIN projection pr ON pr.piece_id = page.id
+      ORDER BY ${ORDER[q.sort]}`,
     args,
   );
   const today = Date.parse(`${dateInZone(new Date(), user.timeZone)}T00:00:00Z`);

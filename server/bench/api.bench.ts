@@ -1,0 +1,92 @@
+// `npm run bench:api`: the review list, the piece page and the reading POST on a plant-sized dataset
+// (50,000 pieces, 1,000,000 readings), beside a bare Express 5 + pg route running one indexed single-piece
+// query on the same database, in the same run (autocannon; ratios, since machines here are noisy).
+import type { AddressInfo } from 'node:net';
+import autocannon from 'autocannon';
+import express from 'express';
+import pg from 'pg';
+import pino from 'pino';
+import { createApp } from '../app';
+import { loadConfig } from '../config';
+import { createDataSource } from '../db/data-source';
+import { createMailer } from '../mail/mailer';
+import { migrate, prepareDatabase } from '../ops/database';
+import { makeDataset } from './dataset';
+
+type Result = { rps: number; p99: number; non2xx: number; errors: number; ok: number };
+
+function run(url: string, o: { connections: number; duration: number; headers?: Record<string, string>; method?: string; body?: (i: number) => string; path?: (i: number) => string }): Promise<Result> {
+  let i = 0;
+  return new Promise((resolve, reject) => {
+    autocannon(
+      {
+        url,
+        connections: o.connections,
+        duration: o.duration,
+        headers: o.headers,
+        requests: [{ method: (o.method ?? 'GET') as 'GET', setupRequest: (req) => {
+          const n = i++;
+          return { ...req, path: o.path ? o.path(n) : req.path, body: o.body ? o.body(n) : undefined, headers: { ...req.headers, ...(o.body ? { 'Idempotency-Key': `bench-post-${Date.now()}-${n}` } : {}) } };
+        } }],
+      },
+      (err, r) => (err ? reject(err) : resolve({ rps: r.requests.average, p99: r.latency.p99, non2xx: r.non2xx, errors: r.errors, ok: r['2xx'] })),
+    );
+  });
+}
+
+async function main(): Promise<void> {
+  const cfg0 = loadConfig({ ...process.env, PG_DATABASE: 'crownwatch_bench', LOG_LEVEL: 'silent', JOBS: 'off', NODE_ENV: 'test' });
+  await prepareDatabase(cfg0);
+  const admin = new pg.Client({ connectionString: cfg0.databaseUrl.replace(/\/crownwatch_bench$/, '/postgres') });
+  await admin.connect();
+  await admin.query('DROP DATABASE IF EXISTS crownwatch_bench WITH (FORCE)');
+  await admin.query('CREATE DATABASE crownwatch_bench');
+  await admin.end();
+  await migrate(cfg0.databaseUrl);
+  const ds = createDataSource(cfg0.databaseUrl, 10);
+  await ds.initialize();
+  const t0 = Date.now();
+  const data = await makeDataset(ds);
+  console.log(`dataset: 50,000 pieces, 1,000,000 readings, projections and flags made in ${((Date.now() - t0) / 1000).toFixed(1)} s`);
+
+  const ours = createApp({ ds, cfg: cfg0, mailer: createMailer(cfg0), log: pino({ level: 'silent' }) }, null).listen(0, '127.0.0.1');
+  const pool = new pg.Pool({ connectionString: cfg0.databaseUrl, max: 10 });
+  const bare = express();
+  bare.get('/bare/:id', async (req, res) => res.json((await pool.query('SELECT * FROM piece WHERE id = $1', [req.params.id])).rows[0]));
+  const bareServer = bare.listen(0, '127.0.0.1');
+  await new Promise((r) => setTimeout(r, 200));
+  const oursUrl = `http://127.0.0.1:${(ours.address() as AddressInfo).port}`;
+  const bareUrl = `http://127.0.0.1:${(bareServer.address() as AddressInfo).port}`;
+  const login = await fetch(`${oursUrl}/api/auth/login`, { method: 'POST', headers: { 'Content-Type': 'application/json' }, body: JSON.stringify({ email: data.engineerEmail, password: data.password }) });
+  const cookies = login.headers.getSetCookie();
+  const headers = { Cookie: cookies.map((c) => c.split(';')[0]).join('; '), 'X-CSRF-Token': /cw_csrf=([^;]+)/.exec(cookies.join(';'))![1]!, 'Content-Type': 'application/json' };
+  const ids = data.pieceIds;
+
+  const anchor = await run(bareUrl, { connections: 10, duration: 10, path: (i) => `/bare/${ids[i % ids.length]}` });
+  const review = await run(`${oursUrl}/api/review?view=all-flagged&pageSize=50`, { connections: 10, duration: 10, headers });
+  const piece = await run(oursUrl, { connections: 10, duration: 10, headers, path: (i) => `/api/pieces/${ids[i % ids.length]}` });
+  const before = Number((await ds.query(`SELECT count(*) FROM reading WHERE request_hash <> 'bench'`))[0].count);
+  const post = await run(`${oursUrl}/api/readings`, {
+    connections: 20, duration: 10, headers, method: 'POST',
+    body: (i) => JSON.stringify({ pieceId: ids[i % ids.length], value: '1 3/8', unit: 'in', takenAt: new Date(Date.UTC(2026, 9, 1) + i * 1000).toISOString(), method: 'level', support: 'dunnage' }),
+  });
+  const after = Number((await ds.query(`SELECT count(*) FROM reading WHERE request_hash <> 'bench'`))[0].count);
+
+  const line = (name: string, r: Result): string => `${name.padEnd(34)} ${Math.round(r.rps).toString().padStart(6)} req/s   p99 ${String(r.p99).padStart(4)} ms   non-2xx ${r.non2xx}, errors ${r.errors}`;
+  console.log(line('anchor: bare Express + pg by id', anchor));
+  console.log(`${line('review list (50 flagged pieces)', review)}   ratio ${(review.rps / anchor.rps).toFixed(2)} req/s, ${(review.p99 / Math.max(1, anchor.p99)).toFixed(1)}× p99`);
+  console.log(`${line('piece page (detail + readings)', piece)}   ratio ${(piece.rps / anchor.rps).toFixed(2)} req/s, ${(piece.p99 / Math.max(1, anchor.p99)).toFixed(1)}× p99`);
+  const [{ doubled }] = await ds.query(`SELECT count(*) - count(DISTINCT idempotency_key) AS doubled FROM reading WHERE request_hash <> 'bench'`);
+  // Requests still in flight when the clock stops are stored but not counted by autocannon: rows ≥ acknowledged.
+  console.log(`${line('reading POST, 20 connections', post)}   rows ${after - before} ≥ acknowledged ${post.ok}: ${after - before >= post.ok ? 'none lost' : 'LOST'}; doubled keys ${doubled}`);
+  console.log('targets: lists ≥ 0.5 of the anchor req/s and p99 ≤ 2×; reading POST p99 < 200 ms with nothing lost or doubled');
+  ours.close();
+  bareServer.close();
+  await pool.end();
+  await ds.destroy();
+}
+
+main().catch((e: unknown) => {
+  console.error(e);
+  process.exit(1);
+});

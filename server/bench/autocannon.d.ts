@@ -1,0 +1,13 @@
+// The few parts of autocannon's API the benchmarks use (the package ships no types).
+declare module 'autocannon' {
+  interface Request { method?: string; path?: string; headers?: Record<string, string>; body?: string }
+  interface Options {
+    url: string;
+    connections?: number;
+    duration?: number;
+    headers?: Record<string, string>;
+    requests?: Array<{ method?: string; setupRequest?: (req: Request) => Request }>;
+  }
+  interface Result { requests: { average: number }; latency: { p99: number }; non2xx: number; errors: number; '2xx': number }
+  export default function autocannon(o: Options, cb: (err: Error | null, r: Result) => void): unknown;
+}
