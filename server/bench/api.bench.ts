@@ -7,11 +7,9 @@ import express from 'express';
 import pg from 'pg';
 import pino from 'pino';
 import { createApp } from '../app';
-import { loadConfig } from '../config';
 import { createDataSource } from '../db/data-source';
 import { createMailer } from '../mail/mailer';
-import { migrate, prepareDatabase } from '../ops/database';
-import { makeDataset } from './dataset';
+import { freshBenchDatabase, makeDataset } from './dataset';
 
 type Result = { rps: number; p99: number; non2xx: number; errors: number; ok: number };
 
@@ -35,14 +33,7 @@ function run(url: string, o: { connections: number; duration: number; headers?: 
 }
 
 async function main(): Promise<void> {
-  const cfg0 = loadConfig({ ...process.env, PG_DATABASE: 'crownwatch_bench', LOG_LEVEL: 'silent', JOBS: 'off', NODE_ENV: 'test' });
-  await prepareDatabase(cfg0);
-  const admin = new pg.Client({ connectionString: cfg0.databaseUrl.replace(/\/crownwatch_bench$/, '/postgres') });
-  await admin.connect();
-  await admin.query('DROP DATABASE IF EXISTS crownwatch_bench WITH (FORCE)');
-  await admin.query('CREATE DATABASE crownwatch_bench');
-  await admin.end();
-  await migrate(cfg0.databaseUrl);
+  const cfg0 = await freshBenchDatabase();
   const ds = createDataSource(cfg0.databaseUrl, 10);
   await ds.initialize();
   const t0 = Date.now();

@@ -1,8 +1,11 @@
 // A deterministic plant-sized dataset for the benchmarks: 50,000 pieces, 1,000,000 readings, their
 // designs, projections and flags, made inside PostgreSQL with generate_series (seconds, not minutes).
+import pg from 'pg';
 import type { DataSource } from 'typeorm';
 import { DEMO_DESIGNS } from '#seed/designs';
 import { hashPassword } from '../auth/password';
+import { loadConfig, type Config } from '../config';
+import { migrate, prepareDatabase } from '../ops/database';
 
 export interface Dataset { plantId: string; pieceIds: string[]; engineerEmail: string; password: string }
 
@@ -45,4 +48,17 @@ export async function makeDataset(ds: DataSource, pieces = 50_000, readingsPerPi
   await ds.query('ANALYZE');
   const ids: Array<{ id: string }> = await ds.query(`SELECT id FROM piece WHERE plant_id = $1 ORDER BY id LIMIT 1000`, [plant.id]);
   return { plantId: plant.id, pieceIds: ids.map((r) => r.id), engineerEmail: email, password };
+}
+
+/** Drops and re-creates the `crownwatch_bench` database on the local cluster, migrated and empty. */
+export async function freshBenchDatabase(): Promise<Config> {
+  const cfg = loadConfig({ ...process.env, PG_DATABASE: 'crownwatch_bench', LOG_LEVEL: 'silent', JOBS: 'off', NODE_ENV: 'test' });
+  await prepareDatabase(cfg);
+  const admin = new pg.Client({ connectionString: cfg.databaseUrl.replace(/\/crownwatch_bench$/, '/postgres') });
+  await admin.connect();
+  await admin.query('DROP DATABASE IF EXISTS crownwatch_bench WITH (FORCE)');
+  await admin.query('CREATE DATABASE crownwatch_bench');
+  await admin.end();
+  await migrate(cfg.databaseUrl);
+  return cfg;
 }

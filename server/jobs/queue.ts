@@ -6,6 +6,10 @@ import { sendDigest } from '../alerts/digest.service';
 import type { Deps, Jobs } from '../deps';
 import { activePieceIds, runProjection } from '../projections/projection.service';
 
+/** Projection jobs fetched at once, and how many of them run side by side (each holds one connection). */
+const PROJECTION_BATCH = 40;
+const PROJECTION_LANES = 4;
+
 export const QUEUES = { projection: 'projection', nightly: 'projection-nightly', digest: 'alert-digest' } as const;
 
 export interface JobRunner extends Jobs {
@@ -37,11 +41,26 @@ export async function createJobs(d: Deps, opts: { schedule: boolean }): Promise<
       await boss.send(QUEUES.digest, { plantId }, { singletonKey: plantId, startAfter: d.cfg.ALERT_DIGEST_SECONDS });
     },
     async startWorkers() {
-      await boss.work<{ pieceId: string }>(QUEUES.projection, { batchSize: 4, pollingIntervalSeconds: 1 }, async (batch) => {
-        for (const job of batch) {
-          const r = await runProjection(d, job.data.pieceId);
-          if (r.raised > 0 && r.plantId) await jobs.alertDigest(r.plantId);
-        }
+      // pg-boss waits out the polling interval after every fetch; after a full batch the worker is told
+      // to fetch again at once, so the nightly fan-out of tens of thousands of pieces is not paced by
+      // the interval. A failure fails the batch and the queue retries it; a re-run stores the same result.
+      const projectionWorker = { id: '' }; // known once work() returns, before the first batch ends
+      projectionWorker.id = await boss.work<{ pieceId: string }>(QUEUES.projection, { batchSize: PROJECTION_BATCH, pollingIntervalSeconds: 0.5 }, async (batch) => {
+        const queue = [...batch];
+        const errors: unknown[] = [];
+        const lane = async (): Promise<void> => {
+          for (let job = queue.shift(); job; job = queue.shift()) {
+            try {
+              const r = await runProjection(d, job.data.pieceId);
+              if (r.raised > 0 && r.plantId) await jobs.alertDigest(r.plantId);
+            } catch (e) {
+              errors.push(e);
+            }
+          }
+        };
+        await Promise.all(Array.from({ length: PROJECTION_LANES }, lane));
+        if (batch.length === PROJECTION_BATCH && projectionWorker.id) boss.notifyWorker(projectionWorker.id);
+        if (errors.length) throw errors[0];
       });
       await boss.work(QUEUES.nightly, { pollingIntervalSeconds: 5 }, async () => {
         const n = await jobs.projectAll();

@@ -1,0 +1,57 @@
+// `npm run bench:nightly`: wall time of the nightly projection over every active piece of the plant-sized
+// dataset, queue included (the nightly job fans out one projection job per piece; the worker loads,
+// projects, stores and flags each), beside the engine alone on the same inputs in one process.
+// Target: ≤ 2× the engine alone. BENCH_PIECES makes a smaller dataset for a quick look.
+import pino from 'pino';
+import { projectPiece } from '#shared/projection/project';
+import { createDataSource } from '../db/data-source';
+import { createJobs, QUEUES } from '../jobs/queue';
+import { createMailer } from '../mail/mailer';
+import { activePieceIds } from '../projections/projection.service';
+import { loadPieceForProjection } from '../projections/projection.repository';
+import { freshBenchDatabase, makeDataset } from './dataset';
+
+const sleep = (ms: number): Promise<void> => new Promise((r) => setTimeout(r, ms));
+
+async function main(): Promise<void> {
+  const pieces = Number(process.env.BENCH_PIECES ?? 50_000);
+  const cfg = await freshBenchDatabase();
+  const ds = createDataSource(cfg.databaseUrl, 10);
+  await ds.initialize();
+  await makeDataset(ds, pieces);
+  const ids = await activePieceIds({ ds, cfg, mailer: createMailer(cfg), log: pino({ level: 'silent' }) });
+  console.log(`dataset: ${pieces.toLocaleString('en-US')} pieces, ${ids.length.toLocaleString('en-US')} not shipped (the nightly run covers those)`);
+
+  // The engine alone: inputs loaded first (not timed), then every projection in one loop.
+  const now = new Date();
+  const inputs = [];
+  for (const id of ids) {
+    const p = await loadPieceForProjection(ds, id, now);
+    if (p) inputs.push(p.input);
+  }
+  const e0 = process.hrtime.bigint();
+  for (const input of inputs) projectPiece(input);
+  const engineS = Number(process.hrtime.bigint() - e0) / 1e9;
+
+  // The nightly run through the queue, as the server runs it.
+  const deps = { ds, cfg, mailer: createMailer(cfg), log: pino({ level: 'silent' }) };
+  const fresh = await createJobs(deps, { schedule: false });
+  await fresh.startWorkers();
+  const q0 = Date.now();
+  await fresh.boss.send(QUEUES.nightly, {});
+  await sleep(1000);
+  while ((await fresh.boss.getQueueSize(QUEUES.nightly, { before: 'completed' })) > 0 || (await fresh.boss.getQueueSize(QUEUES.projection, { before: 'completed' })) > 0) await sleep(500);
+  const queueS = (Date.now() - q0) / 1000;
+  const [{ n }] = await ds.query(`SELECT count(*)::int AS n FROM projection WHERE computed_at >= $1`, [new Date(q0)]);
+  await fresh.stop();
+  await ds.destroy();
+
+  console.log(`engine alone, ${inputs.length} pieces in one process   ${engineS.toFixed(1)} s   (${Math.round(inputs.length / engineS)} pieces/s)`);
+  console.log(`nightly run through the queue                 ${queueS.toFixed(1)} s   (${Math.round(n / queueS)} pieces/s; ${n} projections stored)`);
+  console.log(`ratio ${(queueS / engineS).toFixed(1)}× the engine alone   target ≤ 2×: ${queueS <= 2 * engineS ? 'met' : 'NOT met'}`);
+}
+
+main().catch((e: unknown) => {
+  console.error(e);
+  process.exit(1);
+});
