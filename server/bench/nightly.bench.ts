@@ -19,7 +19,8 @@ async function main(): Promise<void> {
   const ds = createDataSource(cfg.databaseUrl, 10);
   await ds.initialize();
   await makeDataset(ds, pieces);
-  const ids = await activePieceIds({ ds, cfg, mailer: createMailer(cfg), log: pino({ level: 'silent' }) });
+  const deps = { ds, cfg, mailer: createMailer(cfg), log: pino({ level: 'silent' }) };
+  const ids = await activePieceIds(deps);
   console.log(`dataset: ${pieces.toLocaleString('en-US')} pieces, ${ids.length.toLocaleString('en-US')} not shipped (the nightly run covers those)`);
 
   // The engine alone: inputs loaded first (not timed), then every projection in one loop.
@@ -34,7 +35,6 @@ async function main(): Promise<void> {
   const engineS = Number(process.hrtime.bigint() - e0) / 1e9;
 
   // The nightly run through the queue, as the server runs it.
-  const deps = { ds, cfg, mailer: createMailer(cfg), log: pino({ level: 'silent' }) };
   const fresh = await createJobs(deps, { schedule: false });
   await fresh.startWorkers();
   const q0 = Date.now();
