@@ -1,8 +1,10 @@
 import type { DataSource, EntityManager } from 'typeorm';
 import { isLikelyDistorted, type ReadingDto } from '#shared/api/readings';
+import { dateFormat } from '#shared/time/formatters';
+import { preparedRows } from '../db/prepared';
 
-const localHour = (d: Date, timeZone: string): number =>
-  Number(new Intl.DateTimeFormat('en-GB', { hour: 'numeric', hourCycle: 'h23', timeZone }).format(d));
+// A piece page formats every reading of the piece: the formatter is made once (see shared/time).
+const localHour = (d: Date, timeZone: string): number => Number(dateFormat('en-GB', { hour: 'numeric', hourCycle: 'h23', timeZone }).format(d));
 
 export const READING_SELECT = `
   SELECT r.*, u.name AS taken_by_name, pl.time_zone,
@@ -36,7 +38,7 @@ export function toReadingDto(r: Record<string, unknown>): ReadingDto {
 }
 
 export async function readingsOfPiece(db: DataSource | EntityManager, pieceId: string): Promise<ReadingDto[]> {
-  const rows: Array<Record<string, unknown>> = await db.query(`${READING_SELECT} WHERE r.piece_id = $1 ORDER BY r.taken_at DESC, r.received_at DESC`, [pieceId]);
+  const rows = await preparedRows(db, `${READING_SELECT} WHERE r.piece_id = $1 ORDER BY r.taken_at DESC, r.received_at DESC`, [pieceId]);
   return rows.map(toReadingDto);
 }
 

@@ -7,6 +7,7 @@ import { READING_METHOD_LABELS, SKY_LABELS, SUPPORT_LABELS } from '#shared/api/r
 import { CAUTION } from '#shared/camber/schema';
 import { prettyLength, prettySigned, prettyTolerance } from '#shared/camber/pretty';
 import { FLAG_LABELS } from '#shared/projection/project';
+import { dateFormat } from '#shared/time/formatters';
 import type { PieceReportData } from './report.data';
 
 const require = createRequire(import.meta.url);
@@ -18,7 +19,7 @@ const GREY = '#6b6962';
 const ACCENT = '#8a2e08';
 const BAD = '#a3171b';
 
-const when = (iso: string, tz: string): string => new Intl.DateTimeFormat('en-US', { dateStyle: 'medium', timeStyle: 'short', timeZone: tz }).format(new Date(iso));
+const when = (iso: string, tz: string): string => dateFormat('en-US', { dateStyle: 'medium', timeStyle: 'short', timeZone: tz }).format(new Date(iso));
 
 export function newReportDocument(): PDFKit.PDFDocument {
   const doc = new PDFDocument({ size: 'LETTER', margin: 48, info: { Title: 'Piece camber report', Creator: 'Crownwatch' } });

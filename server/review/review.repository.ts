@@ -3,6 +3,7 @@ import type { SessionUser } from '#shared/api/auth';
 import type { FlagDto, ReviewQuery, ReviewRow } from '#shared/api/review';
 import type { PiecePage } from '#shared/api/pieces';
 import { dateInZone } from '#shared/yard/schedule';
+import { preparedRows } from '../db/prepared';
 
 /** Sort keys to SQL (never user text in SQL). Urgency: ship date first, then the worst flag. */
 const ORDER: Record<ReviewQuery['sort'], string> = {
@@ -13,41 +14,32 @@ const ORDER: Record<ReviewQuery['sort'], string> = {
 
 /**
  * Flagged pieces of the plant. "needs-decision": an active flag of severity ≥ 2 raised after the
- * piece's latest decision (or with no decision yet). Served from stored projections and flags, so the
- * list does not run the engine or scan readings.
+ * piece's latest decision (or with no decision yet). Served from `review_item`, the row per flagged
+ * piece that triggers keep (migration ReviewItem), so a page is read off an index: the list neither runs
+ * the engine, nor scans readings, nor aggregates every flag of the plant on each request.
  */
 export async function reviewList(ds: DataSource, user: SessionUser, q: ReviewQuery): Promise<Omit<PiecePage, 'items'> & { items: ReviewRow[] }> {
-  const where = ['p.plant_id = $1', `p.status <> 'shipped'`];
+  const where = ['r.plant_id = $1', `r.status <> 'shipped'`];
   const args: unknown[] = [user.plantId];
   const add = (sql: string, v: unknown): void => {
     args.push(v);
     where.push(sql.replaceAll('?', `$${args.length}`));
   };
-  if (q.jobId) add('p.job_id = ?', q.jobId);
-  if (q.productType) add('d.product_type = ?', q.productType);
-  if (q.bay) add('p.bay = ?', q.bay);
-  if (q.flag) add('EXISTS (SELECT 1 FROM piece_flag x WHERE x.piece_id = p.id AND x.cleared_at IS NULL AND x.kind = ?)', q.flag);
-  const decisionGate = q.view === 'needs-decision' ? 'AND fl.last_serious IS NOT NULL AND (ld.decided_at IS NULL OR fl.last_serious > ld.decided_at)' : '';
+  if (q.jobId) add('r.job_id = ?', q.jobId);
+  if (q.productType) add('r.design_id IN (SELECT id FROM member_design WHERE plant_id = $1 AND product_type = ?)', q.productType);
+  if (q.bay) add('r.bay = ?', q.bay);
+  if (q.flag) add('? = ANY(r.flag_kinds)', q.flag);
+  if (q.view === 'needs-decision') where.push('r.needs_decision');
+  const filter = where.join(' AND ');
   args.push(q.pageSize, (q.page - 1) * q.pageSize);
-  // Start from the active flags (a partial index), not from every piece of the plant; order and page on
-  // cheap columns first, then build the evidence (flags, projection, decision) for the page's rows only.
-  const rows: Array<Record<string, unknown>> = await ds.query(
-    `WITH flagged AS (
-       SELECT f.piece_id, max(f.severity) AS max_severity, max(f.raised_at) FILTER (WHERE f.severity >= 2) AS last_serious
-         FROM piece_flag f WHERE f.plant_id = $1 AND f.cleared_at IS NULL GROUP BY f.piece_id),
-     base AS (
-       SELECT p.id, p.mark, p.job_id, d.product_type, p.bay, p.status, p.ship_date::text AS ship_date, fl.max_severity, ld.kind AS decision_kind, ld.decided_at
-         FROM flagged fl
-         JOIN piece p ON p.id = fl.piece_id
-         JOIN member_design d ON d.id = p.design_id
-         LEFT JOIN LATERAL (SELECT kind, decided_at FROM decision WHERE piece_id = p.id ORDER BY decided_at DESC LIMIT 1) ld ON true
-        WHERE ${where.join(' AND ')} ${decisionGate}),
-     page AS (SELECT *, count(*) OVER () AS total FROM base ORDER BY ${ORDER[q.sort]} LIMIT $${args.length - 1} OFFSET $${args.length})
-     SELECT page.*, j.number AS job_number,
+  const rows = await preparedRows(
+    ds,
+    `WITH page AS (SELECT r.* FROM review_item r WHERE ${filter} ORDER BY ${ORDER[q.sort]} LIMIT $${args.length - 1} OFFSET $${args.length})
+     SELECT page.piece_id AS id, page.mark, page.bay, page.status, page.ship_date::text AS ship_date, page.flags, page.decision_kind, page.decided_at,
+            j.number AS job_number, d.product_type,
             pr.latest_mm, pr.latest_expected_mm, pr.latest_low_mm, pr.latest_high_mm, pr.ship_mm, pr.ship_low_mm, pr.ship_high_mm,
-            (SELECT json_agg(json_build_object('kind', x.kind, 'severity', x.severity, 'reason', x.reason, 'raisedAt', x.raised_at) ORDER BY x.severity DESC)
-               FROM piece_flag x WHERE x.piece_id = page.id AND x.cleared_at IS NULL) AS flags
-       FROM page JOIN job j ON j.id = page.job_id LEFT JOIN projection pr ON pr.piece_id = page.id
+            (SELECT count(*) FROM review_item r WHERE ${filter}) AS total
+       FROM page JOIN job j ON j.id = page.job_id JOIN member_design d ON d.id = page.design_id LEFT JOIN projection pr ON pr.piece_id = page.piece_id
       ORDER BY ${ORDER[q.sort]}`,
     args,
   );
@@ -68,8 +60,14 @@ export async function reviewList(ds: DataSource, user: SessionUser, q: ReviewQue
       atShip: r.ship_mm == null ? null : { mm: num(r.ship_mm), lowMm: num(r.ship_low_mm), highMm: num(r.ship_high_mm) },
       lastDecision: r.decision_kind ? { kind: String(r.decision_kind), at: new Date(r.decided_at as string).toISOString() } : null,
     })),
-    total: rows[0] ? Number(rows[0].total) : 0,
+    total: rows[0] ? Number(rows[0].total) : q.page > 1 ? await countOnly(ds, filter, args.slice(0, -2)) : 0,
     page: q.page,
     pageSize: q.pageSize,
   };
+}
+
+/** The total when the page asked for lies past the end (no row to carry it). */
+async function countOnly(ds: DataSource, filter: string, args: unknown[]): Promise<number> {
+  const [row] = await ds.query(`SELECT count(*) AS total FROM review_item r WHERE ${filter}`, args);
+  return Number(row.total);
 }

@@ -1,10 +1,13 @@
 import type { DataSource, EntityManager } from 'typeorm';
 import type { SessionUser } from '#shared/api/auth';
+import { preparedRows } from '../db/prepared';
 import type { UserRow } from '#shared/api/users';
 
 /** The signed-in user with their plant, or null when unknown or deactivated. */
 export async function loadSessionUser(db: DataSource | EntityManager, userId: string): Promise<SessionUser | null> {
-  const rows: Array<Record<string, unknown>> = await db.query(
+  // Every signed-in request runs this one: a prepared statement.
+  const rows = await preparedRows(
+    db,
     `SELECT u.id, u.email, u.name, u.role, u.plant_id, u.job_id, p.name AS plant_name, p.unit_system, p.time_zone
        FROM app_user u JOIN plant p ON p.id = u.plant_id
       WHERE u.id = $1 AND u.active AND u.password_hash IS NOT NULL`,

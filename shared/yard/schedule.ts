@@ -1,5 +1,6 @@
 // The plant's reading schedule: a reading at release, then at set ages after casting. Dates are plain
 // calendar dates (YYYY-MM-DD) in the plant's time zone.
+import { dateFormat } from '../time/formatters';
 
 /** Ages (days after casting) at which a reading is due after the one at release; plants may change them. */
 export const DEFAULT_READING_AGES = [7, 14, 28, 56, 90, 120, 180];
@@ -34,4 +35,4 @@ export function readingDue(p: { castDate: string; releaseDate: string; lastReadi
 
 /** Today's date in a time zone, as YYYY-MM-DD. */
 export const dateInZone = (d: Date, timeZone: string): string =>
-  new Intl.DateTimeFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit' }).format(d);
+  dateFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit' }).format(d);

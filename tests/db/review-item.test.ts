@@ -1,0 +1,104 @@
+import fc from 'fast-check';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { buildPiece, buildPlant, buildUser } from '../helpers/factories';
+import { testApp, type TestApp } from '../helpers/app';
+
+// `review_item` is a stored summary kept by triggers (migration ReviewItem). Whatever the writers do, it
+// must equal the summary computed from scratch from flags, decisions and pieces.
+let t: TestApp;
+beforeAll(async () => {
+  t = await testApp();
+});
+afterAll(() => t.close());
+
+const FROM_SCRATCH = `
+  SELECT p.id AS piece_id, p.mark, p.bay, p.status, p.ship_date::text AS ship_date, max(f.severity)::int AS max_severity,
+         max(f.raised_at) FILTER (WHERE f.severity >= 2) AS last_serious_at, array_agg(f.kind ORDER BY f.kind) AS flag_kinds,
+         (SELECT kind FROM decision x WHERE x.piece_id = p.id ORDER BY decided_at DESC LIMIT 1) AS decision_kind
+    FROM piece p JOIN piece_flag f ON f.piece_id = p.id AND f.cleared_at IS NULL
+   WHERE p.plant_id = $1 GROUP BY p.id ORDER BY p.id`;
+const STORED = `
+  SELECT piece_id, mark, bay, status, ship_date::text AS ship_date, max_severity, last_serious_at, flag_kinds, decision_kind
+    FROM review_item WHERE plant_id = $1 ORDER BY piece_id`;
+
+const KINDS = ['outside-band', 'outside-tolerance', 'reading-overdue'] as const;
+type Op =
+  | { op: 'raise'; piece: number; kind: (typeof KINDS)[number]; severity: number }
+  | { op: 'clear'; piece: number; kind: (typeof KINDS)[number] }
+  | { op: 'decide'; piece: number; kind: 'accept' | 'hold' }
+  | { op: 'edit'; piece: number; bay: string | null; ship: number }
+  | { op: 'ship'; piece: number }
+  | { op: 'delete-flags'; piece: number };
+
+const opArb: fc.Arbitrary<Op> = fc.oneof(
+  fc.record({ op: fc.constant('raise' as const), piece: fc.nat(3), kind: fc.constantFrom(...KINDS), severity: fc.integer({ min: 1, max: 3 }) }),
+  fc.record({ op: fc.constant('clear' as const), piece: fc.nat(3), kind: fc.constantFrom(...KINDS) }),
+  fc.record({ op: fc.constant('decide' as const), piece: fc.nat(3), kind: fc.constantFrom('accept' as const, 'hold' as const) }),
+  fc.record({ op: fc.constant('edit' as const), piece: fc.nat(3), bay: fc.option(fc.constantFrom('Bay 1', 'Bay 2')), ship: fc.integer({ min: 0, max: 30 }) }),
+  fc.record({ op: fc.constant('ship' as const), piece: fc.nat(3) }),
+  fc.record({ op: fc.constant('delete-flags' as const), piece: fc.nat(3) }),
+);
+
+describe('the stored review summary', () => {
+  it('when flags, decisions and pieces change in any order, then the summary equals the one computed from scratch', async () => {
+    await fc.assert(
+      fc.asyncProperty(fc.array(opArb, { minLength: 1, maxLength: 25 }), async (ops) => {
+        const plant = await buildPlant(t.ds);
+        const qc = await buildUser(t.ds, plant.id, 'qc_manager');
+        const pieces = [];
+        for (let i = 0; i < 4; i++) pieces.push((await buildPiece(t.ds, plant.id)).id);
+        let clock = Date.UTC(2026, 10, 1);
+        const at = (): string => new Date((clock += 60_000)).toISOString();
+        for (const o of ops) {
+          const id = pieces[o.piece];
+          if (o.op === 'raise') {
+            await t.ds.query(
+              `INSERT INTO piece_flag (plant_id, piece_id, kind, severity, reason, raised_at) VALUES ($1, $2, $3, $4, 'test', $5)
+               ON CONFLICT (piece_id, kind) WHERE cleared_at IS NULL DO UPDATE SET severity = EXCLUDED.severity`,
+              [plant.id, id, o.kind, o.severity, at()],
+            );
+          } else if (o.op === 'clear') {
+            await t.ds.query(`UPDATE piece_flag SET cleared_at = $3 WHERE piece_id = $1 AND kind = $2 AND cleared_at IS NULL`, [id, o.kind, at()]);
+          } else if (o.op === 'decide') {
+            await t.ds.query(`INSERT INTO decision (plant_id, piece_id, kind, decided_by, decided_at) VALUES ($1, $2, $3, $4, $5)`, [plant.id, id, o.kind, qc.id, at()]);
+          } else if (o.op === 'edit') {
+            await t.ds.query(`UPDATE piece SET bay = $2, ship_date = date '2026-12-01' + $3::int WHERE id = $1`, [id, o.bay, o.ship]);
+          } else if (o.op === 'ship') {
+            await t.ds.query(`UPDATE piece SET status = 'shipped' WHERE id = $1`, [id]);
+          } else {
+            await t.ds.query(`DELETE FROM piece_flag WHERE piece_id = $1`, [id]);
+          }
+        }
+        expect(await t.ds.query(STORED, [plant.id])).toEqual(await t.ds.query(FROM_SCRATCH, [plant.id]));
+      }),
+      { numRuns: 25 },
+    );
+  });
+
+  it('when a flag is raised and a decision is saved on the same piece at the same moment, then the summary holds both', async () => {
+    const plant = await buildPlant(t.ds);
+    const qc = await buildUser(t.ds, plant.id, 'qc_manager');
+    const piece = await buildPiece(t.ds, plant.id);
+    await t.ds.query(`INSERT INTO piece_flag (plant_id, piece_id, kind, severity, reason) VALUES ($1, $2, 'outside-band', 2, 'first')`, [plant.id, piece.id]);
+    // Two transactions held open together: the flag writer commits only after the decision writer has
+    // started its own refresh, which must wait and then see the new flag.
+    const a = t.ds.createQueryRunner();
+    const b = t.ds.createQueryRunner();
+    await a.connect();
+    await b.connect();
+    try {
+      await a.startTransaction();
+      await a.query(`INSERT INTO piece_flag (plant_id, piece_id, kind, severity, reason) VALUES ($1, $2, 'outside-tolerance', 3, 'second')`, [plant.id, piece.id]);
+      await b.startTransaction();
+      const decided = b.query(`INSERT INTO decision (plant_id, piece_id, kind, decided_by) VALUES ($1, $2, 'hold', $3)`, [plant.id, piece.id, qc.id]).then(() => b.commitTransaction());
+      await new Promise((r) => setTimeout(r, 200));
+      await a.commitTransaction();
+      await decided;
+    } finally {
+      await a.release();
+      await b.release();
+    }
+    const [row] = await t.ds.query(`SELECT max_severity, flag_kinds, decision_kind FROM review_item WHERE piece_id = $1`, [piece.id]);
+    expect(row).toEqual({ max_severity: 3, flag_kinds: ['outside-band', 'outside-tolerance'], decision_kind: 'hold' });
+  });
+});
