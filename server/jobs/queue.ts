@@ -4,11 +4,17 @@
 import PgBoss from 'pg-boss';
 import { sendDigest } from '../alerts/digest.service';
 import type { Deps, Jobs } from '../deps';
-import { activePieceIds, runProjection } from '../projections/projection.service';
+import { activePieceIds, runProjectionBatch } from '../projections/projection.service';
 
-/** Projection jobs fetched at once, and how many of them run side by side (each holds one connection). */
-const PROJECTION_BATCH = 40;
-const PROJECTION_LANES = 4;
+/**
+ * Projection jobs fetched at once (loaded, projected and stored together, a fixed number of statements
+ * per batch), and how many workers fetch side by side: one batch is in the engine while another is
+ * being read or written by PostgreSQL.
+ */
+const PROJECTION_BATCH = 100;
+const PROJECTION_WORKERS = 2;
+/** Jobs per insert when the nightly run fans out. */
+const FAN_OUT_CHUNK = 5_000;
 
 export const QUEUES = { projection: 'projection', nightly: 'projection-nightly', digest: 'alert-digest' } as const;
 
@@ -27,41 +33,42 @@ export async function createJobs(d: Deps, opts: { schedule: boolean }): Promise<
   // The digest is retried for about a day: a mail server that is down for a while loses nothing.
   await boss.createQueue(QUEUES.digest, { name: QUEUES.digest, policy: 'stately', retryLimit: 40, retryDelay: 15, retryBackoff: true });
 
+  let started = false;
   const jobs: JobRunner = {
     boss,
     async projectPiece(pieceId, delaySeconds = d.cfg.PROJECTION_DELAY_SECONDS) {
       await boss.send(QUEUES.projection, { pieceId }, { singletonKey: pieceId, startAfter: delaySeconds });
     },
     async projectAll(plantId) {
+      // One job per piece (a piece already queued keeps its one job: the insert skips it).
       const ids = await activePieceIds(d, plantId);
-      for (const id of ids) await boss.send(QUEUES.projection, { pieceId: id }, { singletonKey: id });
+      for (let i = 0; i < ids.length; i += FAN_OUT_CHUNK) {
+        await boss.insert(ids.slice(i, i + FAN_OUT_CHUNK).map((id) => ({ name: QUEUES.projection, data: { pieceId: id }, singletonKey: id })));
+      }
       return ids.length;
     },
     async alertDigest(plantId) {
       await boss.send(QUEUES.digest, { plantId }, { singletonKey: plantId, startAfter: d.cfg.ALERT_DIGEST_SECONDS });
     },
     async startWorkers() {
+      if (started) return; // once per runner
+      started = true;
       // pg-boss waits out the polling interval after every fetch; after a full batch the worker is told
       // to fetch again at once, so the nightly fan-out of tens of thousands of pieces is not paced by
-      // the interval. A failure fails the batch and the queue retries it; a re-run stores the same result.
-      const projectionWorker = { id: '' }; // known once work() returns, before the first batch ends
-      projectionWorker.id = await boss.work<{ pieceId: string }>(QUEUES.projection, { batchSize: PROJECTION_BATCH, pollingIntervalSeconds: 0.5 }, async (batch) => {
-        const queue = [...batch];
-        const errors: unknown[] = [];
-        const lane = async (): Promise<void> => {
-          for (let job = queue.shift(); job; job = queue.shift()) {
-            try {
-              const r = await runProjection(d, job.data.pieceId);
-              if (r.raised > 0 && r.plantId) await jobs.alertDigest(r.plantId);
-            } catch (e) {
-              errors.push(e);
-            }
+      // the interval. Trouble with the database fails the batch and the queue retries it (a re-run
+      // stores the same result); a piece the engine refuses fails its own job only.
+      for (let w = 0; w < PROJECTION_WORKERS; w++) {
+        const worker = { id: '' }; // known once work() returns, before the first batch ends
+        worker.id = await boss.work<{ pieceId: string }>(QUEUES.projection, { batchSize: PROJECTION_BATCH, pollingIntervalSeconds: 0.5 }, async (batch) => {
+          const r = await runProjectionBatch(d, [...new Set(batch.map((j) => j.data.pieceId))]);
+          for (const plantId of new Set(r.raised.map((x) => x.plantId))) await jobs.alertDigest(plantId);
+          for (const f of r.failed) {
+            const message = f.error instanceof Error ? f.error.message : String(f.error);
+            for (const job of batch.filter((j) => j.data.pieceId === f.pieceId)) await boss.fail(QUEUES.projection, job.id, { message });
           }
-        };
-        await Promise.all(Array.from({ length: PROJECTION_LANES }, lane));
-        if (batch.length === PROJECTION_BATCH && projectionWorker.id) boss.notifyWorker(projectionWorker.id);
-        if (errors.length) throw errors[0];
-      });
+          if (batch.length === PROJECTION_BATCH && worker.id) boss.notifyWorker(worker.id);
+        });
+      }
       await boss.work(QUEUES.nightly, { pollingIntervalSeconds: 5 }, async () => {
         const n = await jobs.projectAll();
         d.log.info({ pieces: n }, 'nightly projection queued');

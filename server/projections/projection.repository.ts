@@ -1,6 +1,6 @@
 import type { DataSource, EntityManager } from 'typeorm';
 import type { DesignSpec } from '#shared/api/designs';
-import type { Flag, ProjectionInput, ProjectionResult } from '#shared/projection/project';
+import type { CurvePointMm, Flag, ProjectionInput, ProjectionResult } from '#shared/projection/project';
 import { dateInZone } from '#shared/yard/schedule';
 import { adoptedFactor, familySettings } from '../settings/settings.repository';
 
@@ -16,27 +16,56 @@ export interface PieceForProjection {
   input: ProjectionInput;
 }
 
-/** Everything the projection of one piece needs, read in two queries. */
-export async function loadPieceForProjection(db: Db, pieceId: string, now: Date): Promise<PieceForProjection | null> {
+/** A family's settings and adopted factor, read once per batch however many of its pieces it holds. */
+type Family = { fs: Awaited<ReturnType<typeof familySettings>>; adopted: Awaited<ReturnType<typeof adoptedFactor>> };
+
+/**
+ * Everything the projections of some pieces need: two queries for the pieces and their readings, and
+ * two per product family in the batch. The nightly run loads hundreds of pieces at a time this way.
+ */
+export async function loadPiecesForProjection(db: Db, ids: string[], now: Date): Promise<PieceForProjection[]> {
+  if (!ids.length) return [];
   const rows: Array<Record<string, unknown>> = await db.query(
     `SELECT p.id, p.plant_id, p.mark, p.status, p.bay, p.job_id, p.cast_date::text AS cast_date, p.release_date::text AS release_date,
             p.ship_date::text AS ship_date, p.erection_date::text AS erection_date, d.spec, d.product_type, pl.time_zone, pl.unit_system
        FROM piece p JOIN member_design d ON d.id = p.design_id JOIN plant pl ON pl.id = p.plant_id
-      WHERE p.id = $1`,
-    [pieceId],
+      WHERE p.id = ANY($1::uuid[])`,
+    [ids],
   );
-  const r = rows[0];
-  if (!r) return null;
-  const tz = String(r.time_zone);
   const readings: Array<Record<string, unknown>> = await db.query(
-    `SELECT id, taken_at, value_mm, support, sky, extract(hour FROM taken_at AT TIME ZONE $2)::int AS local_hour
-       FROM reading WHERE piece_id = $1 AND superseded_by IS NULL ORDER BY taken_at`,
-    [pieceId, tz],
+    `SELECT r.piece_id, r.id, r.taken_at, r.value_mm, r.support, r.sky, extract(hour FROM r.taken_at AT TIME ZONE pl.time_zone)::int AS local_hour
+       FROM reading r JOIN plant pl ON pl.id = r.plant_id
+      WHERE r.piece_id = ANY($1::uuid[]) AND r.superseded_by IS NULL ORDER BY r.piece_id, r.taken_at`,
+    [ids],
   );
+  const readingsOf = new Map<string, Array<Record<string, unknown>>>();
+  for (const x of readings) {
+    const list = readingsOf.get(String(x.piece_id));
+    if (list) list.push(x);
+    else readingsOf.set(String(x.piece_id), [x]);
+  }
+  const families = new Map<string, Family>();
+  const byId = new Map<string, PieceForProjection>();
+  for (const r of rows) {
+    const key = `${String(r.plant_id)}|${String(r.product_type)}`;
+    let family = families.get(key);
+    if (!family) {
+      family = { fs: await familySettings(db, String(r.plant_id), String(r.product_type)), adopted: await adoptedFactor(db, String(r.plant_id), String(r.product_type)) };
+      families.set(key, family);
+    }
+    byId.set(String(r.id), toPieceForProjection(r, readingsOf.get(String(r.id)) ?? [], family, now));
+  }
+  return ids.flatMap((id) => byId.get(id) ?? []);
+}
+
+export async function loadPieceForProjection(db: Db, pieceId: string, now: Date): Promise<PieceForProjection | null> {
+  return (await loadPiecesForProjection(db, [pieceId], now))[0] ?? null;
+}
+
+function toPieceForProjection(r: Record<string, unknown>, readings: Array<Record<string, unknown>>, { fs, adopted }: Family, now: Date): PieceForProjection {
+  const tz = String(r.time_zone);
   // The family's settings override the design where the plant set them (method, humidity, band,
   // tolerance, reading schedule); an adopted growth factor becomes the prior of the calibration.
-  const fs = await familySettings(db, String(r.plant_id), String(r.product_type));
-  const adopted = await adoptedFactor(db, String(r.plant_id), String(r.product_type));
   const baseSpec = r.spec as DesignSpec;
   const si = baseSpec.units === 'si';
   const spec: DesignSpec = {
@@ -79,13 +108,33 @@ export async function loadPieceForProjection(db: Db, pieceId: string, now: Date)
 
 const n = (v: number | null | undefined): number | null => (v === undefined || v === null || !Number.isFinite(v) ? null : v);
 
-/** Replaces the stored projection of a piece (upsert: a repeated run leaves one row). */
-export async function saveProjection(db: Db, piece: PieceForProjection, r: ProjectionResult, inputsHash: string, now: Date): Promise<void> {
+/** Curve points are stored to 0.01 mm and 0.01 day: far finer than a tape reads, half the JSON of full doubles. */
+const roundPoint = (p: CurvePointMm): CurvePointMm => Object.fromEntries(Object.entries(p).map(([k, v]) => [k, Math.round(v * 100) / 100])) as unknown as CurvePointMm;
+
+export interface Projected { piece: PieceForProjection; result: ProjectionResult; inputsHash: string }
+
+/** Replaces the stored projections of some pieces in one statement (upsert: a repeated run leaves one row each). */
+export async function saveProjections(db: Db, items: Projected[], now: Date): Promise<void> {
+  if (!items.length) return;
+  const rows = items.map(({ piece, result: r, inputsHash }) => ({
+    piece_id: piece.id, plant_id: piece.plantId, inputs_hash: inputsHash, method: r.method, readings_used: r.readingsUsed,
+    growth_factor: r.growthFactor, growth_factor_sd: r.growthFactorSd, elastic_factor: r.elasticFactor,
+    latest_mm: n(r.latest?.mm), latest_expected_mm: n(r.latest?.expectedMm), latest_low_mm: n(r.latest?.lowMm), latest_high_mm: n(r.latest?.highMm),
+    ship_mm: n(r.ship?.mm), ship_low_mm: n(r.ship?.lowMm), ship_high_mm: n(r.ship?.highMm),
+    erection_mm: n(r.erection?.mm), erection_low_mm: n(r.erection?.lowMm), erection_high_mm: n(r.erection?.highMm),
+    tolerance_mm: r.toleranceMm, differential_mm: r.differentialMm, measured_ratio: n(r.measuredRatio), curve: r.curve.map(roundPoint), note: r.note,
+  }));
   await db.query(
     `INSERT INTO projection (piece_id, plant_id, computed_at, inputs_hash, method, readings_used, growth_factor, growth_factor_sd, elastic_factor,
                              latest_mm, latest_expected_mm, latest_low_mm, latest_high_mm, ship_mm, ship_low_mm, ship_high_mm,
                              erection_mm, erection_low_mm, erection_high_mm, tolerance_mm, differential_mm, measured_ratio, curve, note)
-     VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12, $13, $14, $15, $16, $17, $18, $19, $20, $21, $22, $23, $24)
+     SELECT x.piece_id, x.plant_id, $2, x.inputs_hash, x.method, x.readings_used, x.growth_factor, x.growth_factor_sd, x.elastic_factor,
+            x.latest_mm, x.latest_expected_mm, x.latest_low_mm, x.latest_high_mm, x.ship_mm, x.ship_low_mm, x.ship_high_mm,
+            x.erection_mm, x.erection_low_mm, x.erection_high_mm, x.tolerance_mm, x.differential_mm, x.measured_ratio, x.curve, x.note
+       FROM jsonb_to_recordset($1::jsonb) AS x(piece_id uuid, plant_id uuid, inputs_hash text, method text, readings_used int, growth_factor numeric,
+            growth_factor_sd numeric, elastic_factor numeric, latest_mm numeric, latest_expected_mm numeric, latest_low_mm numeric, latest_high_mm numeric,
+            ship_mm numeric, ship_low_mm numeric, ship_high_mm numeric, erection_mm numeric, erection_low_mm numeric, erection_high_mm numeric,
+            tolerance_mm numeric, differential_mm numeric, measured_ratio numeric, curve jsonb, note text)
      ON CONFLICT (piece_id) DO UPDATE SET computed_at = EXCLUDED.computed_at, inputs_hash = EXCLUDED.inputs_hash, method = EXCLUDED.method,
        readings_used = EXCLUDED.readings_used, growth_factor = EXCLUDED.growth_factor, growth_factor_sd = EXCLUDED.growth_factor_sd,
        elastic_factor = EXCLUDED.elastic_factor, latest_mm = EXCLUDED.latest_mm, latest_expected_mm = EXCLUDED.latest_expected_mm,
@@ -93,31 +142,40 @@ export async function saveProjection(db: Db, piece: PieceForProjection, r: Proje
        ship_low_mm = EXCLUDED.ship_low_mm, ship_high_mm = EXCLUDED.ship_high_mm, erection_mm = EXCLUDED.erection_mm,
        erection_low_mm = EXCLUDED.erection_low_mm, erection_high_mm = EXCLUDED.erection_high_mm, tolerance_mm = EXCLUDED.tolerance_mm,
        differential_mm = EXCLUDED.differential_mm, measured_ratio = EXCLUDED.measured_ratio, curve = EXCLUDED.curve, note = EXCLUDED.note`,
-    [
-      piece.id, piece.plantId, now, inputsHash, r.method, r.readingsUsed, r.growthFactor, r.growthFactorSd, r.elasticFactor,
-      n(r.latest?.mm), n(r.latest?.expectedMm), n(r.latest?.lowMm), n(r.latest?.highMm), n(r.ship?.mm), n(r.ship?.lowMm), n(r.ship?.highMm),
-      n(r.erection?.mm), n(r.erection?.lowMm), n(r.erection?.highMm), r.toleranceMm, r.differentialMm, n(r.measuredRatio), JSON.stringify(r.curve), r.note,
-    ],
+    [JSON.stringify(rows), now],
   );
 }
 
+export interface WantedFlags { plantId: string; pieceId: string; flags: Flag[] }
+
 /**
- * Makes the active flags of a piece equal to `flags` for the kinds given: raises new ones, updates the
- * reason of those still true, clears the rest. Returns how many were newly raised.
+ * Makes the active flags of some pieces equal to what is wanted, for the kinds given: raises new ones,
+ * updates the reason and severity of those still true when they changed, clears the rest. Three
+ * statements whatever the number of pieces. Returns the flags newly raised.
  */
-export async function syncFlags(db: Db, plantId: string, pieceId: string, flags: Flag[], kinds: readonly string[]): Promise<number> {
-  const active: Array<{ kind: string }> = await db.query(`SELECT kind FROM piece_flag WHERE piece_id = $1 AND cleared_at IS NULL AND kind = ANY($2::text[])`, [pieceId, kinds]);
-  const now = new Set(flags.map((f) => f.kind));
-  const toClear = active.map((a) => a.kind).filter((k) => !now.has(k as Flag['kind']));
-  if (toClear.length) await db.query(`UPDATE piece_flag SET cleared_at = now() WHERE piece_id = $1 AND cleared_at IS NULL AND kind = ANY($2::text[])`, [pieceId, toClear]);
-  let raised = 0;
-  for (const f of flags) {
-    if (active.some((a) => a.kind === f.kind)) {
-      await db.query(`UPDATE piece_flag SET reason = $3, severity = $4 WHERE piece_id = $1 AND kind = $2 AND cleared_at IS NULL`, [pieceId, f.kind, f.reason, f.severity]);
-    } else {
-      await db.query(`INSERT INTO piece_flag (plant_id, piece_id, kind, severity, reason) VALUES ($1, $2, $3, $4, $5)`, [plantId, pieceId, f.kind, f.severity, f.reason]);
-      raised++;
-    }
-  }
-  return raised;
+export async function syncFlags(db: Db, wanted: WantedFlags[], kinds: readonly string[]): Promise<Array<{ pieceId: string; plantId: string }>> {
+  if (!wanted.length) return [];
+  const ids = wanted.map((w) => w.pieceId);
+  const want = JSON.stringify(wanted.flatMap((w) => w.flags.map((f) => ({ plant_id: w.plantId, piece_id: w.pieceId, kind: f.kind, severity: f.severity, reason: f.reason }))));
+  const WANT = `jsonb_to_recordset($1::jsonb) AS w(plant_id uuid, piece_id uuid, kind text, severity int, reason text)`;
+  await db.query(
+    `UPDATE piece_flag f SET cleared_at = now()
+      WHERE f.piece_id = ANY($2::uuid[]) AND f.cleared_at IS NULL AND f.kind = ANY($3::text[])
+        AND NOT EXISTS (SELECT 1 FROM ${WANT} WHERE w.piece_id = f.piece_id AND w.kind = f.kind)`,
+    [want, ids, kinds],
+  );
+  await db.query(
+    `UPDATE piece_flag f SET reason = w.reason, severity = w.severity FROM ${WANT}
+      WHERE f.piece_id = w.piece_id AND f.kind = w.kind AND f.cleared_at IS NULL AND (f.reason, f.severity) IS DISTINCT FROM (w.reason, w.severity)`,
+    [want],
+  );
+  const raised: Array<{ piece_id: string; plant_id: string }> = await db.query(
+    `INSERT INTO piece_flag (plant_id, piece_id, kind, severity, reason)
+     SELECT w.plant_id, w.piece_id, w.kind, w.severity, w.reason FROM ${WANT}
+      WHERE NOT EXISTS (SELECT 1 FROM piece_flag f WHERE f.piece_id = w.piece_id AND f.kind = w.kind AND f.cleared_at IS NULL)
+     ON CONFLICT (piece_id, kind) WHERE cleared_at IS NULL DO NOTHING
+     RETURNING piece_id, plant_id`,
+    [want],
+  );
+  return raised.map((r) => ({ pieceId: r.piece_id, plantId: r.plant_id }));
 }

@@ -1,63 +1,99 @@
 import { createHash } from 'node:crypto';
 import { bayMismatches, FLAG_KINDS, projectPiece } from '#shared/projection/project';
 import type { Deps } from '../deps';
-import { loadPieceForProjection, saveProjection, syncFlags } from './projection.repository';
+import { loadPiecesForProjection, type Projected, saveProjections, syncFlags, type WantedFlags } from './projection.repository';
 
 const PIECE_KINDS = FLAG_KINDS.filter((k) => k !== 'neighbour-mismatch');
+/** Pieces per call when everything is recomputed in this process. */
+const RECOMPUTE_BATCH = 200;
 
 export interface RunResult { pieceId: string; plantId: string | null; raised: number }
+export interface BatchResult { projected: number; raised: Array<{ pieceId: string; plantId: string }>; failed: Array<{ pieceId: string; error: unknown }> }
 
 /**
- * Recomputes one piece: projection, its flags, and the neighbour check of its bay. Idempotent: the same
- * inputs give the same stored row and flags. A failure is recorded for the piece (visible to admins)
- * and rethrown so the queue retries it.
+ * Recomputes some pieces: projections, their flags, and the neighbour check of their bays, with a
+ * fixed number of statements per batch (the nightly run does hundreds of pieces per call). Idempotent:
+ * the same inputs give the same stored rows and flags. A piece the engine refuses is recorded in
+ * projection_failure (visible to admins) and returned in `failed`; the others are stored regardless.
  */
-export async function runProjection(d: Deps, pieceId: string, now = new Date()): Promise<RunResult> {
-  const piece = await loadPieceForProjection(d.ds, pieceId, now);
-  if (!piece) return { pieceId, plantId: null, raised: 0 };
-  if (piece.status === 'shipped') {
-    await syncFlags(d.ds, piece.plantId, pieceId, [], FLAG_KINDS);
-    return { pieceId, plantId: piece.plantId, raised: 0 };
+export async function runProjectionBatch(d: Deps, ids: string[], now = new Date()): Promise<BatchResult> {
+  const pieces = await loadPiecesForProjection(d.ds, ids, now);
+  const projected: Projected[] = [];
+  const failed: BatchResult['failed'] = [];
+  for (const piece of pieces) {
+    if (piece.status === 'shipped') continue;
+    try {
+      const result = projectPiece(piece.input);
+      projected.push({ piece, result, inputsHash: createHash('sha256').update(JSON.stringify(piece.input)).digest('hex') });
+    } catch (error) {
+      failed.push({ pieceId: piece.id, error });
+    }
   }
-  try {
-    const result = projectPiece(piece.input);
-    const hash = createHash('sha256').update(JSON.stringify(piece.input)).digest('hex');
-    const raised = await d.ds.transaction(async (tx) => {
-      await saveProjection(tx, piece, result, hash, now);
-      await tx.query(`DELETE FROM projection_failure WHERE piece_id = $1`, [pieceId]);
-      return syncFlags(tx, piece.plantId, pieceId, result.flags, PIECE_KINDS);
-    });
-    const bayRaised = piece.bay ? await checkBay(d, piece.plantId, piece.jobId, piece.bay, piece.input.unit) : 0;
-    return { pieceId, plantId: piece.plantId, raised: raised + bayRaised };
-  } catch (e) {
-    const message = e instanceof Error ? e.message : String(e);
+  const shipped: WantedFlags[] = pieces.filter((p) => p.status === 'shipped').map((p) => ({ plantId: p.plantId, pieceId: p.id, flags: [] }));
+  const raised = await d.ds.transaction(async (tx) => {
+    await saveProjections(tx, projected, now);
+    if (projected.length) await tx.query(`DELETE FROM projection_failure WHERE piece_id = ANY($1::uuid[])`, [projected.map((x) => x.piece.id)]);
+    await syncFlags(tx, shipped, FLAG_KINDS);
+    return syncFlags(tx, projected.map((x) => ({ plantId: x.piece.plantId, pieceId: x.piece.id, flags: x.result.flags })), PIECE_KINDS);
+  });
+  if (failed.length) {
+    const plantOf = new Map(pieces.map((p) => [p.id, p.plantId]));
     await d.ds.query(
-      `INSERT INTO projection_failure (piece_id, plant_id, message) VALUES ($1, $2, $3)
+      `INSERT INTO projection_failure (piece_id, plant_id, message)
+       SELECT x.piece_id, x.plant_id, x.message FROM jsonb_to_recordset($1::jsonb) AS x(piece_id uuid, plant_id uuid, message text)
        ON CONFLICT (piece_id) DO UPDATE SET message = EXCLUDED.message, failed_at = now()`,
-      [pieceId, piece.plantId, message.slice(0, 2000)],
+      [JSON.stringify(failed.map((f) => ({ piece_id: f.pieceId, plant_id: plantOf.get(f.pieceId), message: (f.error instanceof Error ? f.error.message : String(f.error)).slice(0, 2000) })))],
     );
-    throw e;
   }
+  const bays = new Map<string, Bay>();
+  for (const { piece } of projected) if (piece.bay) bays.set(`${piece.plantId}|${piece.jobId}|${piece.bay}`, { plantId: piece.plantId, jobId: piece.jobId, bay: piece.bay, unit: piece.input.unit });
+  const bayRaised = await checkBays(d, [...bays.values()]);
+  return { projected: projected.length, raised: [...raised, ...bayRaised], failed };
 }
 
-/** The neighbour check of one erection bay, from the stored projections at erection. */
-export async function checkBay(d: Deps, plantId: string, jobId: string, bay: string, unit: 'in' | 'mm'): Promise<number> {
-  const rows: Array<{ id: string; mark: string; bay_position: number | null; erection_mm: string | null; differential_mm: string | null }> = await d.ds.query(
-    `SELECT p.id, p.mark, p.bay_position, pr.erection_mm, pr.differential_mm
+/** Recomputes one piece (a reading, an edit). Throws when the engine refuses it, so the queue retries. */
+export async function runProjection(d: Deps, pieceId: string, now = new Date()): Promise<RunResult> {
+  const r = await runProjectionBatch(d, [pieceId], now);
+  if (r.failed[0]) throw r.failed[0].error;
+  const plantId = r.raised[0]?.plantId ?? (await d.ds.query(`SELECT plant_id FROM piece WHERE id = $1`, [pieceId]))[0]?.plant_id ?? null;
+  return { pieceId, plantId, raised: r.raised.length };
+}
+
+interface Bay { plantId: string; jobId: string; bay: string; unit: 'in' | 'mm' }
+
+/** The neighbour check of erection bays, from the stored projections at erection: one read, one sync. */
+export async function checkBays(d: Deps, bays: Bay[]): Promise<Array<{ pieceId: string; plantId: string }>> {
+  if (!bays.length) return [];
+  const rows: Array<{ id: string; plant_id: string; job_id: string; bay: string; mark: string; bay_position: number | null; erection_mm: string | null; differential_mm: string | null }> = await d.ds.query(
+    `SELECT p.id, p.plant_id, p.job_id, p.bay, p.mark, p.bay_position, pr.erection_mm, pr.differential_mm
        FROM piece p LEFT JOIN projection pr ON pr.piece_id = p.id
-      WHERE p.plant_id = $1 AND p.job_id = $2 AND p.bay = $3 AND p.status <> 'shipped'`,
-    [plantId, jobId, bay],
+       JOIN unnest($1::uuid[], $2::uuid[], $3::text[]) AS b(plant_id, job_id, bay) ON b.plant_id = p.plant_id AND b.job_id = p.job_id AND b.bay = p.bay
+      WHERE p.status <> 'shipped'`,
+    [bays.map((b) => b.plantId), bays.map((b) => b.jobId), bays.map((b) => b.bay)],
   );
-  const diff = Math.min(...rows.map((r) => Number(r.differential_mm ?? Infinity)));
-  const mismatches = Number.isFinite(diff)
-    ? bayMismatches(rows.map((r) => ({ id: r.id, mark: r.mark, position: r.bay_position, erectionMm: r.erection_mm === null ? null : Number(r.erection_mm) })), diff, unit)
-    : new Map<string, string>();
-  let raised = 0;
+  const byBay = new Map<string, typeof rows>();
   for (const r of rows) {
-    const reason = mismatches.get(r.id);
-    raised += await syncFlags(d.ds, plantId, r.id, reason ? [{ kind: 'neighbour-mismatch', severity: 2, reason }] : [], ['neighbour-mismatch']);
+    const key = `${r.plant_id}|${r.job_id}|${r.bay}`;
+    byBay.set(key, [...(byBay.get(key) ?? []), r]);
   }
-  return raised;
+  const wanted: WantedFlags[] = [];
+  for (const b of bays) {
+    const members = byBay.get(`${b.plantId}|${b.jobId}|${b.bay}`) ?? [];
+    const diff = Math.min(...members.map((r) => Number(r.differential_mm ?? Infinity)));
+    const mismatches = Number.isFinite(diff)
+      ? bayMismatches(members.map((r) => ({ id: r.id, mark: r.mark, position: r.bay_position, erectionMm: r.erection_mm === null ? null : Number(r.erection_mm) })), diff, b.unit)
+      : new Map<string, string>();
+    for (const r of members) {
+      const reason = mismatches.get(r.id);
+      wanted.push({ plantId: b.plantId, pieceId: r.id, flags: reason ? [{ kind: 'neighbour-mismatch', severity: 2, reason }] : [] });
+    }
+  }
+  return syncFlags(d.ds, wanted, ['neighbour-mismatch']);
+}
+
+/** The neighbour check of one erection bay (after a bay plan is saved). Returns how many flags it raised. */
+export async function checkBay(d: Deps, plantId: string, jobId: string, bay: string, unit: 'in' | 'mm'): Promise<number> {
+  return (await checkBays(d, [{ plantId, jobId, bay, unit }])).length;
 }
 
 /** Active pieces that have never been projected (a database from before the projections existed). */
@@ -82,13 +118,11 @@ export async function activePieceIds(d: Deps, plantId?: string): Promise<string[
 export async function recomputeAll(d: Deps, opts: { plantId?: string; quiet?: boolean } = {}): Promise<{ done: number; failed: number }> {
   let done = 0;
   let failed = 0;
-  for (const id of await activePieceIds(d, opts.plantId)) {
-    try {
-      await runProjection(d, id);
-      done++;
-    } catch {
-      failed++; // recorded in projection_failure by runProjection; the rest go on
-    }
+  const ids = await activePieceIds(d, opts.plantId);
+  for (let i = 0; i < ids.length; i += RECOMPUTE_BATCH) {
+    const r = await runProjectionBatch(d, ids.slice(i, i + RECOMPUTE_BATCH));
+    done += r.projected;
+    failed += r.failed.length; // recorded in projection_failure; the rest go on
   }
   if (opts.quiet) await d.ds.query(`UPDATE piece_flag SET notified_at = now() WHERE notified_at IS NULL ${opts.plantId ? 'AND plant_id = $1' : ''}`, opts.plantId ? [opts.plantId] : []);
   return { done, failed };

@@ -89,6 +89,23 @@ describe('projection queue (pg-boss in PostgreSQL)', () => {
     expect(fresh).toEqual([{ n: 3 }]);
     expect(extra).toHaveLength(3);
   });
+
+  it('when one piece of a fetched batch is refused by the engine, then only its job fails and the others are stored', async () => {
+    const plant = await buildPlantWithUsers(t.ds);
+    const [{ design_id: designId }] = await t.ds.query(`SELECT design_id FROM piece WHERE id = $1`, [plant.piece.id]);
+    const good = [await buildPiece(t.ds, plant.plantId), await buildPiece(t.ds, plant.plantId)];
+    const bad = await buildPiece(t.ds, plant.plantId, { designId });
+    await t.ds.query(`UPDATE member_design SET spec = spec || '{"length": -1}' WHERE id = $1`, [designId]);
+    await jobs.startWorkers();
+    // The broken design is shared by the plant's first piece and `bad`; both are refused, `good` are not.
+    await jobs.boss.insert([...good, bad, plant.piece].map((p) => ({ name: QUEUES.projection, data: { pieceId: p.id }, singletonKey: p.id, retryLimit: 0 })));
+    const states = async (): Promise<string[]> => (await Promise.all([...good, bad].map(async (p) => (await jobsOf(p.id))[0]?.state ?? 'none')));
+    const done = await until(states, (v) => v.every((s) => s === 'completed' || s === 'failed'));
+    expect(done).toEqual(['completed', 'completed', 'failed']);
+    expect(await t.ds.query(`SELECT count(*)::int AS n FROM projection WHERE piece_id = ANY($1::uuid[])`, [good.map((p) => p.id)])).toEqual([{ n: 2 }]);
+    const [failure] = await t.ds.query(`SELECT message FROM projection_failure WHERE piece_id = $1`, [bad.id]);
+    expect(failure.message).toMatch(/length/i);
+  });
 });
 
 describe('alert digest e-mail', () => {
