@@ -38,6 +38,10 @@ const envSchema = z.object({
   ALERT_DIGEST_SECONDS: z.coerce.number().int().min(0).default(300),
   /** Seconds a reading waits before its piece is recomputed, so readings in a burst cause one run. */
   PROJECTION_DELAY_SECONDS: z.coerce.number().int().min(0).default(5),
+  /** Seconds after which a projection batch a worker took and never finished (the process died) is run again. */
+  PROJECTION_EXPIRE_SECONDS: z.coerce.number().int().min(1).default(300),
+  /** Seconds between the queue's housekeeping rounds (expired jobs back to the queue, old ones archived). */
+  JOB_MAINTENANCE_SECONDS: z.coerce.number().int().min(1).default(120),
 });
 
 export type Config = z.infer<typeof envSchema> & { databaseUrl: string; jwtSecret: string; publicUrl: string };

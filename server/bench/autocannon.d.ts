@@ -5,9 +5,12 @@ declare module 'autocannon' {
     url: string;
     connections?: number;
     duration?: number;
+    /** Requests per second across all connections. */
+    overallRate?: number;
     headers?: Record<string, string>;
     requests?: Array<{ method?: string; setupRequest?: (req: Request) => Request }>;
   }
-  interface Result { requests: { average: number }; latency: { p99: number }; non2xx: number; errors: number; '2xx': number }
+  interface Result { requests: { average: number; total: number }; latency: { p99: number }; non2xx: number; errors: number; '2xx': number }
+  export type { Result };
   export default function autocannon(o: Options, cb: (err: Error | null, r: Result) => void): unknown;
 }

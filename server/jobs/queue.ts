@@ -25,10 +25,13 @@ export interface JobRunner extends Jobs {
 }
 
 export async function createJobs(d: Deps, opts: { schedule: boolean }): Promise<JobRunner> {
-  const boss = new PgBoss({ connectionString: d.cfg.databaseUrl, schema: 'pgboss', max: 4, supervise: opts.schedule, schedule: opts.schedule });
+  const boss = new PgBoss({ connectionString: d.cfg.databaseUrl, schema: 'pgboss', max: 4, supervise: opts.schedule, schedule: opts.schedule, maintenanceIntervalSeconds: d.cfg.JOB_MAINTENANCE_SECONDS });
   boss.on('error', (err) => d.log.error({ err }, 'job queue error'));
   await boss.start();
-  await boss.createQueue(QUEUES.projection, { name: QUEUES.projection, policy: 'stately', retryLimit: 3, retryDelay: 2, retryBackoff: true, expireInSeconds: 300 });
+  // createQueue leaves an existing queue as it was; updateQueue applies the configured expiry to it.
+  const projectionQueue: PgBoss.Queue = { name: QUEUES.projection, policy: 'stately', retryLimit: 3, retryDelay: 2, retryBackoff: true, expireInSeconds: d.cfg.PROJECTION_EXPIRE_SECONDS };
+  await boss.createQueue(QUEUES.projection, projectionQueue);
+  await boss.updateQueue(QUEUES.projection, projectionQueue);
   await boss.createQueue(QUEUES.nightly, { name: QUEUES.nightly, policy: 'stately', retryLimit: 2, expireInSeconds: 3600 });
   // The digest is retried for about a day: a mail server that is down for a while loses nothing.
   await boss.createQueue(QUEUES.digest, { name: QUEUES.digest, policy: 'stately', retryLimit: 40, retryDelay: 15, retryBackoff: true });

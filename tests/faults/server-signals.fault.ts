@@ -1,9 +1,10 @@
-import { spawn, type ChildProcess } from 'node:child_process';
+import type { ChildProcess } from 'node:child_process';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createDataSource } from '#server/db/data-source';
 import { migrate } from '#server/ops/database';
 import { hashPassword } from '#server/auth/password';
 import { throwawayCluster, type Cluster } from './cluster';
+import { exited, killLeftovers, startServerProcess } from './server-process';
 
 // The server as a real process: SIGTERM while a long import commits, and SIGKILL in the middle of one.
 const PORT = 5196;
@@ -21,38 +22,13 @@ beforeAll(async () => {
   const [design] = await ds.query(`INSERT INTO member_design (plant_id, code, name, product_type, spec) VALUES ($1, 'D', 'D', 'beam', '{}') RETURNING id`, [plant.id]);
   for (let i = 0; i < 50; i++) await ds.query(`INSERT INTO piece (plant_id, job_id, design_id, mark, cast_date, release_date) VALUES ($1, $2, $3, $4, '2025-01-01', '2025-01-02')`, [plant.id, job.id, design.id, `S-${i}`]);
 });
-const spawned: ChildProcess[] = [];
 afterAll(async () => {
-  for (const c of spawned) if (c.exitCode === null && c.signalCode === null) c.kill('SIGKILL'); // never leave a server behind
+  killLeftovers(); // never leave a server behind
   await ds?.destroy().catch(() => undefined);
   cluster?.destroy();
 });
 
-async function startServer(): Promise<ChildProcess> {
-  const taken = await fetch(`http://127.0.0.1:${PORT}/api/health`).then(() => true, () => false);
-  if (taken) throw new Error(`port ${PORT} is already in use; stop what runs there first`);
-  // node with the tsx loader, not the tsx wrapper, so the signals reach our process itself.
-  const child = spawn(process.execPath, ['--import', 'tsx', 'server/ops/serve-api.ts'], {
-    // A clean environment: the test runner's own variables (its loaders and workers) stay out.
-    env: { PATH: process.env.PATH ?? '', HOME: process.env.HOME ?? '/root', NODE_ENV: 'test', PORT: String(PORT), DATABASE_URL: cluster.url, LOG_LEVEL: 'silent', JOBS: 'off', SMTP_PORT: '1999' },
-    stdio: 'ignore',
-  });
-  spawned.push(child);
-  return new Promise<ChildProcess>((resolve, reject) => {
-    child.once('exit', (code) => reject(new Error(`the server exited with ${code} before it answered`)));
-    const until = Date.now() + 30_000;
-    const poll = async (): Promise<void> => {
-      try {
-        if ((await fetch(`http://127.0.0.1:${PORT}/api/health`)).ok) return resolve(child);
-      } catch {
-        // not up yet
-      }
-      if (Date.now() > until) return reject(new Error('the server did not start'));
-      setTimeout(() => void poll(), 250);
-    };
-    void poll();
-  });
-}
+const startServer = (): Promise<ChildProcess> => startServerProcess(PORT, cluster.url);
 
 async function session(): Promise<{ cookie: string; csrf: string }> {
   const r = await fetch(`http://127.0.0.1:${PORT}/api/auth/login`, { method: 'POST', headers: { 'Content-Type': 'application/json' }, body: JSON.stringify({ email: 's@s.example', password: 'signal password 1' }) });
@@ -73,7 +49,6 @@ async function upload(s: { cookie: string; csrf: string }, run: number): Promise
 const commit = (s: { cookie: string; csrf: string }, imp: { id: string; proposedMapping: Record<string, string | null> }) =>
   fetch(`http://127.0.0.1:${PORT}/api/imports/${imp.id}/commit`, { method: 'POST', headers: { Cookie: s.cookie, 'X-CSRF-Token': s.csrf, 'Content-Type': 'application/json' }, body: JSON.stringify({ mapping: imp.proposedMapping }) });
 
-const exited = (child: ChildProcess): Promise<number | null> => new Promise((r) => child.once('exit', (code) => r(code)));
 const rows = async (id: string): Promise<number> => (await ds.query(`SELECT count(*)::int AS n FROM reading WHERE idempotency_key LIKE $1`, [`import:${id}:%`]))[0].n;
 
 describe('signals to the server process', () => {
