@@ -56,6 +56,7 @@ async function main(): Promise<void> {
   const anchor = await run(bareUrl, { connections: 10, duration: 10, path: (i) => `/bare/${ids[i % ids.length]}` });
   const review = await run(`${oursUrl}/api/review?view=all-flagged&pageSize=50`, { connections: 10, duration: 10, headers });
   const piece = await run(oursUrl, { connections: 10, duration: 10, headers, path: (i) => `/api/pieces/${ids[i % ids.length]}` });
+  const list = await run(`${oursUrl}/api/pieces?sort=shipDate&pageSize=50`, { connections: 10, duration: 10, headers });
   const before = Number((await ds.query(`SELECT count(*) FROM reading WHERE request_hash <> 'bench'`))[0].count);
   const post = await run(`${oursUrl}/api/readings`, {
     connections: 20, duration: 10, headers, method: 'POST',
@@ -63,10 +64,11 @@ async function main(): Promise<void> {
   });
   const after = Number((await ds.query(`SELECT count(*) FROM reading WHERE request_hash <> 'bench'`))[0].count);
 
-  const line = (name: string, r: Result): string => `${name.padEnd(34)} ${Math.round(r.rps).toString().padStart(6)} req/s   p99 ${String(r.p99).padStart(4)} ms   non-2xx ${r.non2xx}, errors ${r.errors}`;
+  const line = (name: string, r: Result): string => `${name.padEnd(42)} ${Math.round(r.rps).toString().padStart(6)} req/s   p99 ${String(r.p99).padStart(4)} ms   non-2xx ${r.non2xx}, errors ${r.errors}`;
   console.log(line('anchor: bare Express + pg by id', anchor));
   console.log(`${line('review list (50 flagged pieces)', review)}   ratio ${(review.rps / anchor.rps).toFixed(2)} req/s, ${(review.p99 / Math.max(1, anchor.p99)).toFixed(1)}× p99`);
   console.log(`${line('piece page (detail + readings)', piece)}   ratio ${(piece.rps / anchor.rps).toFixed(2)} req/s, ${(piece.p99 / Math.max(1, anchor.p99)).toFixed(1)}× p99`);
+  console.log(`${line('piece list (50 of 50,000, latest reading)', list)}   ratio ${(list.rps / anchor.rps).toFixed(2)} req/s, ${(list.p99 / Math.max(1, anchor.p99)).toFixed(1)}× p99`);
   const [{ doubled }] = await ds.query(`SELECT count(*) - count(DISTINCT idempotency_key) AS doubled FROM reading WHERE request_hash <> 'bench'`);
   // Requests still in flight when the clock stops are stored but not counted by autocannon: rows ≥ acknowledged.
   console.log(`${line('reading POST, 20 connections', post)}   rows ${after - before} ≥ acknowledged ${post.ok}: ${after - before >= post.ok ? 'none lost' : 'LOST'}; doubled keys ${doubled}`);

@@ -31,21 +31,29 @@ async function main(): Promise<void> {
   for (const input of inputs) projectPiece(input);
   const engineS = Number(process.hrtime.bigint() - e0) / 1e9;
 
-  // The nightly run through the queue, as the server runs it.
+  // The nightly run through the queue, as the server runs it: the first night after the dataset is
+  // loaded (every stored projection and flag replaced), then the next night (yesterday's results there).
   const fresh = await createJobs(deps, { schedule: false });
   await fresh.startWorkers();
-  const q0 = Date.now();
-  await fresh.boss.send(QUEUES.nightly, {});
-  await sleep(1000);
-  while ((await fresh.boss.getQueueSize(QUEUES.nightly, { before: 'completed' })) > 0 || (await fresh.boss.getQueueSize(QUEUES.projection, { before: 'completed' })) > 0) await sleep(500);
-  const queueS = (Date.now() - q0) / 1000;
-  const [{ n }] = await ds.query(`SELECT count(*)::int AS n FROM projection WHERE computed_at >= $1`, [new Date(q0)]);
+  const night = async (): Promise<{ seconds: number; stored: number }> => {
+    const q0 = Date.now();
+    await fresh.boss.send(QUEUES.nightly, {});
+    await sleep(1000);
+    while ((await fresh.boss.getQueueSize(QUEUES.nightly, { before: 'completed' })) > 0 || (await fresh.boss.getQueueSize(QUEUES.projection, { before: 'completed' })) > 0) await sleep(250);
+    const seconds = (Date.now() - q0) / 1000;
+    const [{ n }] = await ds.query(`SELECT count(*)::int AS n FROM projection WHERE computed_at >= $1`, [new Date(q0)]);
+    return { seconds, stored: n };
+  };
+  const first = await night();
+  const next = await night();
   await fresh.stop();
   await ds.destroy();
 
-  console.log(`engine alone, ${inputs.length} pieces in one process   ${engineS.toFixed(1)} s   (${Math.round(inputs.length / engineS)} pieces/s)`);
-  console.log(`nightly run through the queue                 ${queueS.toFixed(1)} s   (${Math.round(n / queueS)} pieces/s; ${n} projections stored)`);
-  console.log(`ratio ${(queueS / engineS).toFixed(1)}× the engine alone   target ≤ 2×: ${queueS <= 2 * engineS ? 'met' : 'NOT met'}`);
+  console.log(`engine alone, ${inputs.length} pieces in one process      ${engineS.toFixed(1)} s   (${Math.round(inputs.length / engineS)} pieces/s)`);
+  for (const [name, r] of [['first night (every result new)', first], ['next night (yesterday stored)', next]] as const) {
+    console.log(`${name.padEnd(34)} ${r.seconds.toFixed(1).padStart(6)} s   (${Math.round(r.stored / r.seconds)} pieces/s; ${r.stored} projections stored)   ratio ${(r.seconds / engineS).toFixed(1)}× the engine alone`);
+  }
+  console.log(`target ≤ 2× the engine alone: ${next.seconds <= 2 * engineS ? 'met' : 'NOT met'} on a typical night, ${first.seconds <= 2 * engineS ? 'met' : 'NOT met'} on the first`);
 }
 
 main().catch((e: unknown) => {

@@ -4,7 +4,7 @@
 import PgBoss from 'pg-boss';
 import { sendDigest } from '../alerts/digest.service';
 import type { Deps, Jobs } from '../deps';
-import { activePieceIds, runProjectionBatch } from '../projections/projection.service';
+import { activePieceIds, checkAllBays, runProjectionBatch } from '../projections/projection.service';
 
 /**
  * Projection jobs fetched at once (loaded, projected and stored together, a fixed number of statements
@@ -46,7 +46,7 @@ export async function createJobs(d: Deps, opts: { schedule: boolean }): Promise<
       // One job per piece (a piece already queued keeps its one job: the insert skips it).
       const ids = await activePieceIds(d, plantId);
       for (let i = 0; i < ids.length; i += FAN_OUT_CHUNK) {
-        await boss.insert(ids.slice(i, i + FAN_OUT_CHUNK).map((id) => ({ name: QUEUES.projection, data: { pieceId: id }, singletonKey: id })));
+        await boss.insert(ids.slice(i, i + FAN_OUT_CHUNK).map((id) => ({ name: QUEUES.projection, data: { pieceId: id, nightly: true }, singletonKey: id })));
       }
       return ids.length;
     },
@@ -62,8 +62,10 @@ export async function createJobs(d: Deps, opts: { schedule: boolean }): Promise<
       // stores the same result); a piece the engine refuses fails its own job only.
       for (let w = 0; w < PROJECTION_WORKERS; w++) {
         const worker = { id: '' }; // known once work() returns, before the first batch ends
-        worker.id = await boss.work<{ pieceId: string }>(QUEUES.projection, { batchSize: PROJECTION_BATCH, pollingIntervalSeconds: 0.5 }, async (batch) => {
-          const r = await runProjectionBatch(d, [...new Set(batch.map((j) => j.data.pieceId))]);
+        worker.id = await boss.work<{ pieceId: string; nightly?: boolean }>(QUEUES.projection, { batchSize: PROJECTION_BATCH, pollingIntervalSeconds: 0.5 }, async (batch) => {
+          const ids = (nightly: boolean): string[] => [...new Set(batch.filter((j) => Boolean(j.data.nightly) === nightly).map((j) => j.data.pieceId))];
+          const runs = [await runProjectionBatch(d, ids(false)), await runProjectionBatch(d, ids(true), new Date(), { bays: 'changed' })];
+          const r = { raised: runs.flatMap((x) => x.raised), failed: runs.flatMap((x) => x.failed) };
           for (const plantId of new Set(r.raised.map((x) => x.plantId))) await jobs.alertDigest(plantId);
           for (const f of r.failed) {
             const message = f.error instanceof Error ? f.error.message : String(f.error);
@@ -75,6 +77,10 @@ export async function createJobs(d: Deps, opts: { schedule: boolean }): Promise<
       await boss.work(QUEUES.nightly, { pollingIntervalSeconds: 5 }, async () => {
         const n = await jobs.projectAll();
         d.log.info({ pieces: n }, 'nightly projection queued');
+        // Every bay once a night, whatever changed its members (a piece shipped, moved, re-planned); the
+        // projection batches check only the bays of projections that changed.
+        const raised = await checkAllBays(d);
+        for (const plantId of new Set(raised.map((x) => x.plantId))) await jobs.alertDigest(plantId);
       });
       await boss.work<{ plantId: string }>(QUEUES.digest, { pollingIntervalSeconds: 2 }, async (batch) => {
         for (const job of batch) await sendDigest(d, job.data.plantId);

@@ -14,6 +14,15 @@ const SORT_SQL: Record<ListQuery['sort'], string> = {
   job: 'job_number',
 };
 
+/** The same sort keys on the piece and job tables, for paging before the page's rows are built. */
+const BASE_SORT_SQL: Record<ListQuery['sort'], string> = {
+  mark: 'p.mark',
+  castDate: 'p.cast_date',
+  shipDate: 'p.ship_date',
+  status: 'p.status',
+  job: 'j.number',
+};
+
 export const PIECE_SELECT = `
   SELECT p.id, p.mark, p.job_id, j.number AS job_number, p.design_id, d.code AS design_code, d.product_type,
          p.bed, p.cast_date::text AS cast_date, p.release_date::text AS release_date, p.ship_date::text AS ship_date,
@@ -62,22 +71,28 @@ export async function listPieces(ds: DataSource, user: SessionUser, q: ListQuery
   if (user.role === 'viewer') add('p.job_id = ?', user.jobId);
   if (q.q && markKey(q.q)) add(`p.mark_key LIKE '%' || ? || '%'`, markKey(q.q));
   if (q.status) add('p.status = ?', q.status);
-  if (q.productType) add('d.product_type = ?', q.productType);
+  if (q.productType) add('p.design_id IN (SELECT id FROM member_design WHERE plant_id = $1 AND product_type = ?)', q.productType);
   if (q.jobId) add('p.job_id = ?', q.jobId);
   const dir = q.dir === 'desc' ? 'DESC' : 'ASC';
   args.push(q.pageSize, (q.page - 1) * q.pageSize);
-  const rows: Array<Record<string, unknown>> = await ds.query(
-    `SELECT *, count(*) OVER () AS total FROM (${PIECE_SELECT} WHERE ${where.join(' AND ')}) x
-      ORDER BY ${SORT_SQL[q.sort]} ${dir} NULLS LAST, mark ASC
-      LIMIT $${args.length - 1} OFFSET $${args.length}`,
-    args,
-  );
+  // Page on the piece's own columns first (an index per sort key), then read the latest reading for the
+  // page's rows only; the total is counted apart, so the page never sorts every piece of the plant.
+  const filter = where.join(' AND ');
+  const [rows, [count]] = await Promise.all([
+    ds.query(
+      `WITH page AS (SELECT p.id FROM piece p ${q.sort === 'job' ? 'JOIN job j ON j.id = p.job_id' : ''} WHERE ${filter} ORDER BY ${BASE_SORT_SQL[q.sort]} ${dir} NULLS LAST, p.mark ASC LIMIT $${args.length - 1} OFFSET $${args.length})
+       SELECT x.* FROM page CROSS JOIN LATERAL (${PIECE_SELECT} WHERE p.id = page.id) x
+        ORDER BY ${SORT_SQL[q.sort]} ${dir} NULLS LAST, mark ASC`,
+      args,
+    ) as Promise<Array<Record<string, unknown>>>,
+    ds.query(`SELECT count(*)::int AS total FROM piece p WHERE ${filter}`, args.slice(0, -2)) as Promise<Array<{ total: number }>>,
+  ]);
   return {
     items: rows.map((r) => {
       const { version: _v, ...row } = toPieceRow(r);
       return row;
     }),
-    total: rows[0] ? Number(rows[0].total) : 0,
+    total: count?.total ?? 0,
     page: q.page,
     pageSize: q.pageSize,
   };

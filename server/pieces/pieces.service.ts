@@ -3,7 +3,7 @@ import type { PieceDetail } from '#shared/api/piece-detail';
 import type { Deps } from '../deps';
 import { preparedRows } from '../db/prepared';
 import { notFound } from '../http/errors';
-import { readingsOfPiece } from '../readings/readings.repository';
+import { READING_SELECT, toReadingDto } from '../readings/readings.repository';
 import { PIECE_SELECT, toPieceRow } from './pieces.repository';
 
 export async function pieceDetail(d: Deps, user: SessionUser, id: string): Promise<PieceDetail> {
@@ -13,26 +13,29 @@ export async function pieceDetail(d: Deps, user: SessionUser, id: string): Promi
     args.push(user.jobId);
     extra = ' AND p.job_id = $3';
   }
-  const rows = await preparedRows(d.ds, `${PIECE_SELECT} WHERE p.id = $1 AND p.plant_id = $2${extra}`, args);
-  if (!rows[0]) throw notFound('the piece');
-  const piece = toPieceRow(rows[0]);
-  // The rest is read side by side once the piece is known to be the user's (prepared: a hot path).
-  const [designs, decisions, readings] = await Promise.all([
-    preparedRows(d.ds, `SELECT id, code, name, version, product_type, spec FROM member_design WHERE id = $1`, [piece.designId]),
-    preparedRows(
-      d.ds,
-      `SELECT x.id, x.kind, x.comment, u.name AS decided_by, x.decided_at FROM decision x JOIN app_user u ON u.id = x.decided_by
-        WHERE x.piece_id = $1 ORDER BY x.decided_at DESC`,
-      [id],
-    ),
-    readingsOfPiece(d.ds, id),
-  ]);
-  const ds = designs[0]!;
+  // One statement for the whole page (piece, design, decisions, readings), prepared: it is a hot path,
+  // and one round trip instead of four is most of its cost.
+  const rows = await preparedRows(
+    d.ds,
+    `SELECT base.*, row_to_json(des) AS design, dec.list AS decisions, rd.list AS readings
+       FROM (${PIECE_SELECT} WHERE p.id = $1 AND p.plant_id = $2${extra}) base
+       JOIN LATERAL (SELECT id, code, name, version, product_type, spec FROM member_design WHERE id = base.design_id) des ON true
+       JOIN LATERAL (
+         SELECT coalesce(json_agg(x ORDER BY x.decided_at DESC), '[]') AS list
+           FROM (SELECT x.id, x.kind, x.comment, u.name AS decided_by, x.decided_at FROM decision x JOIN app_user u ON u.id = x.decided_by WHERE x.piece_id = base.id) x) dec ON true
+       JOIN LATERAL (
+         SELECT coalesce(json_agg(r ORDER BY r.taken_at DESC, r.received_at DESC), '[]') AS list
+           FROM (${READING_SELECT} WHERE r.piece_id = base.id) r) rd ON true`,
+    args,
+  );
+  const row = rows[0];
+  if (!row) throw notFound('the piece');
+  const ds = row.design as Record<string, unknown>;
   return {
-    piece,
+    piece: toPieceRow(row),
     design: { id: String(ds.id), code: String(ds.code), name: String(ds.name), version: Number(ds.version), productType: String(ds.product_type), spec: ds.spec },
-    readings,
-    decisions: decisions.map((x) => ({ id: String(x.id), kind: String(x.kind), comment: String(x.comment), decidedBy: String(x.decided_by), decidedAt: new Date(x.decided_at as string).toISOString() })),
+    readings: (row.readings as Array<Record<string, unknown>>).map(toReadingDto),
+    decisions: (row.decisions as Array<Record<string, unknown>>).map((x) => ({ id: String(x.id), kind: String(x.kind), comment: String(x.comment), decidedBy: String(x.decided_by), decidedAt: new Date(x.decided_at as string).toISOString() })),
   };
 }
 

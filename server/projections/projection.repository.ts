@@ -14,6 +14,8 @@ export interface PieceForProjection {
   bay: string | null;
   jobId: string;
   input: ProjectionInput;
+  /** The result hash of the projection stored now, if any. */
+  storedResultHash: string | null;
 }
 
 /** A family's settings and adopted factor, read once per batch however many of its pieces it holds. */
@@ -27,8 +29,9 @@ export async function loadPiecesForProjection(db: Db, ids: string[], now: Date):
   if (!ids.length) return [];
   const rows: Array<Record<string, unknown>> = await db.query(
     `SELECT p.id, p.plant_id, p.mark, p.status, p.bay, p.job_id, p.cast_date::text AS cast_date, p.release_date::text AS release_date,
-            p.ship_date::text AS ship_date, p.erection_date::text AS erection_date, d.spec, d.product_type, pl.time_zone, pl.unit_system
-       FROM piece p JOIN member_design d ON d.id = p.design_id JOIN plant pl ON pl.id = p.plant_id
+            p.ship_date::text AS ship_date, p.erection_date::text AS erection_date, p.design_id, d.product_type, pl.time_zone, pl.unit_system,
+            pr.result_hash
+       FROM piece p JOIN member_design d ON d.id = p.design_id JOIN plant pl ON pl.id = p.plant_id LEFT JOIN projection pr ON pr.piece_id = p.id
       WHERE p.id = ANY($1::uuid[])`,
     [ids],
   );
@@ -37,6 +40,11 @@ export async function loadPiecesForProjection(db: Db, ids: string[], now: Date):
        FROM reading r JOIN plant pl ON pl.id = r.plant_id
       WHERE r.piece_id = ANY($1::uuid[]) AND r.superseded_by IS NULL ORDER BY r.piece_id, r.taken_at`,
     [ids],
+  );
+  // Each design's spec once, not once per piece (a batch holds hundreds of pieces of a few designs).
+  const designIds = [...new Set(rows.map((r) => String(r.design_id)))];
+  const specs = new Map<string, DesignSpec>(
+    (await db.query(`SELECT id, spec FROM member_design WHERE id = ANY($1::uuid[])`, [designIds]) as Array<{ id: string; spec: DesignSpec }>).map((x) => [x.id, x.spec]),
   );
   const readingsOf = new Map<string, Array<Record<string, unknown>>>();
   for (const x of readings) {
@@ -53,7 +61,7 @@ export async function loadPiecesForProjection(db: Db, ids: string[], now: Date):
       family = { fs: await familySettings(db, String(r.plant_id), String(r.product_type)), adopted: await adoptedFactor(db, String(r.plant_id), String(r.product_type)) };
       families.set(key, family);
     }
-    byId.set(String(r.id), toPieceForProjection(r, readingsOf.get(String(r.id)) ?? [], family, now));
+    byId.set(String(r.id), toPieceForProjection({ ...r, spec: specs.get(String(r.design_id)) }, readingsOf.get(String(r.id)) ?? [], family, now));
   }
   return ids.flatMap((id) => byId.get(id) ?? []);
 }
@@ -82,6 +90,7 @@ function toPieceForProjection(r: Record<string, unknown>, readings: Array<Record
     status: String(r.status),
     bay: (r.bay as string | null) ?? null,
     jobId: String(r.job_id),
+    storedResultHash: (r.result_hash as string | null) ?? null,
     input: {
       spec,
       readingAges: fs.readingAges,
@@ -113,36 +122,51 @@ const roundPoint = (p: CurvePointMm): CurvePointMm => Object.fromEntries(Object.
 
 export interface Projected { piece: PieceForProjection; result: ProjectionResult; inputsHash: string }
 
-/** Replaces the stored projections of some pieces in one statement (upsert: a repeated run leaves one row each). */
-export async function saveProjections(db: Db, items: Projected[], now: Date): Promise<void> {
-  if (!items.length) return;
-  const rows = items.map(({ piece, result: r, inputsHash }) => ({
-    piece_id: piece.id, plant_id: piece.plantId, inputs_hash: inputsHash, method: r.method, readings_used: r.readingsUsed,
+/** The stored columns of a projection, apart from when and from which inputs it was computed. */
+export function projectionRow({ piece, result: r }: Projected): Record<string, unknown> {
+  return {
+    piece_id: piece.id, plant_id: piece.plantId, method: r.method, readings_used: r.readingsUsed,
     growth_factor: r.growthFactor, growth_factor_sd: r.growthFactorSd, elastic_factor: r.elasticFactor,
     latest_mm: n(r.latest?.mm), latest_expected_mm: n(r.latest?.expectedMm), latest_low_mm: n(r.latest?.lowMm), latest_high_mm: n(r.latest?.highMm),
     ship_mm: n(r.ship?.mm), ship_low_mm: n(r.ship?.lowMm), ship_high_mm: n(r.ship?.highMm),
     erection_mm: n(r.erection?.mm), erection_low_mm: n(r.erection?.lowMm), erection_high_mm: n(r.erection?.highMm),
     tolerance_mm: r.toleranceMm, differential_mm: r.differentialMm, measured_ratio: n(r.measuredRatio), curve: r.curve.map(roundPoint), note: r.note,
-  }));
+  };
+}
+
+/** Replaces the stored projections of some pieces in one statement (upsert: a repeated run leaves one row each). */
+export async function saveProjections(db: Db, items: Array<{ row: Record<string, unknown>; inputsHash: string; resultHash: string }>, now: Date): Promise<void> {
+  if (!items.length) return;
+  const rows = items.map((x) => ({ ...x.row, inputs_hash: x.inputsHash, result_hash: x.resultHash }));
   await db.query(
-    `INSERT INTO projection (piece_id, plant_id, computed_at, inputs_hash, method, readings_used, growth_factor, growth_factor_sd, elastic_factor,
+    `INSERT INTO projection (piece_id, plant_id, computed_at, inputs_hash, result_hash, method, readings_used, growth_factor, growth_factor_sd, elastic_factor,
                              latest_mm, latest_expected_mm, latest_low_mm, latest_high_mm, ship_mm, ship_low_mm, ship_high_mm,
                              erection_mm, erection_low_mm, erection_high_mm, tolerance_mm, differential_mm, measured_ratio, curve, note)
-     SELECT x.piece_id, x.plant_id, $2, x.inputs_hash, x.method, x.readings_used, x.growth_factor, x.growth_factor_sd, x.elastic_factor,
+     SELECT x.piece_id, x.plant_id, $2, x.inputs_hash, x.result_hash, x.method, x.readings_used, x.growth_factor, x.growth_factor_sd, x.elastic_factor,
             x.latest_mm, x.latest_expected_mm, x.latest_low_mm, x.latest_high_mm, x.ship_mm, x.ship_low_mm, x.ship_high_mm,
             x.erection_mm, x.erection_low_mm, x.erection_high_mm, x.tolerance_mm, x.differential_mm, x.measured_ratio, x.curve, x.note
-       FROM jsonb_to_recordset($1::jsonb) AS x(piece_id uuid, plant_id uuid, inputs_hash text, method text, readings_used int, growth_factor numeric,
+       FROM jsonb_to_recordset($1::jsonb) AS x(piece_id uuid, plant_id uuid, inputs_hash text, result_hash text, method text, readings_used int, growth_factor numeric,
             growth_factor_sd numeric, elastic_factor numeric, latest_mm numeric, latest_expected_mm numeric, latest_low_mm numeric, latest_high_mm numeric,
             ship_mm numeric, ship_low_mm numeric, ship_high_mm numeric, erection_mm numeric, erection_low_mm numeric, erection_high_mm numeric,
             tolerance_mm numeric, differential_mm numeric, measured_ratio numeric, curve jsonb, note text)
-     ON CONFLICT (piece_id) DO UPDATE SET computed_at = EXCLUDED.computed_at, inputs_hash = EXCLUDED.inputs_hash, method = EXCLUDED.method,
-       readings_used = EXCLUDED.readings_used, growth_factor = EXCLUDED.growth_factor, growth_factor_sd = EXCLUDED.growth_factor_sd,
+     ON CONFLICT (piece_id) DO UPDATE SET computed_at = EXCLUDED.computed_at, inputs_hash = EXCLUDED.inputs_hash, result_hash = EXCLUDED.result_hash,
+       method = EXCLUDED.method, readings_used = EXCLUDED.readings_used, growth_factor = EXCLUDED.growth_factor, growth_factor_sd = EXCLUDED.growth_factor_sd,
        elastic_factor = EXCLUDED.elastic_factor, latest_mm = EXCLUDED.latest_mm, latest_expected_mm = EXCLUDED.latest_expected_mm,
        latest_low_mm = EXCLUDED.latest_low_mm, latest_high_mm = EXCLUDED.latest_high_mm, ship_mm = EXCLUDED.ship_mm,
        ship_low_mm = EXCLUDED.ship_low_mm, ship_high_mm = EXCLUDED.ship_high_mm, erection_mm = EXCLUDED.erection_mm,
        erection_low_mm = EXCLUDED.erection_low_mm, erection_high_mm = EXCLUDED.erection_high_mm, tolerance_mm = EXCLUDED.tolerance_mm,
        differential_mm = EXCLUDED.differential_mm, measured_ratio = EXCLUDED.measured_ratio, curve = EXCLUDED.curve, note = EXCLUDED.note`,
     [JSON.stringify(rows), now],
+  );
+}
+
+/** Marks stored projections whose result did not change as computed now from these inputs (the curve is not rewritten). */
+export async function touchProjections(db: Db, items: Array<{ pieceId: string; inputsHash: string }>, now: Date): Promise<void> {
+  if (!items.length) return;
+  await db.query(
+    `UPDATE projection p SET computed_at = $2, inputs_hash = x.inputs_hash
+       FROM jsonb_to_recordset($1::jsonb) AS x(piece_id uuid, inputs_hash text) WHERE p.piece_id = x.piece_id`,
+    [JSON.stringify(items.map((i) => ({ piece_id: i.pieceId, inputs_hash: i.inputsHash }))), now],
   );
 }
 

@@ -1,9 +1,10 @@
 import { createHash } from 'node:crypto';
 import { bayMismatches, FLAG_KINDS, projectPiece } from '#shared/projection/project';
 import type { Deps } from '../deps';
-import { loadPiecesForProjection, type Projected, saveProjections, syncFlags, type WantedFlags } from './projection.repository';
+import { loadPiecesForProjection, type Projected, projectionRow, saveProjections, syncFlags, touchProjections, type WantedFlags } from './projection.repository';
 
 const PIECE_KINDS = FLAG_KINDS.filter((k) => k !== 'neighbour-mismatch');
+const sha256 = (s: string): string => createHash('sha256').update(s).digest('hex');
 /** Pieces per call when everything is recomputed in this process. */
 const RECOMPUTE_BATCH = 200;
 
@@ -16,24 +17,35 @@ export interface BatchResult { projected: number; raised: Array<{ pieceId: strin
  * the same inputs give the same stored rows and flags. A piece the engine refuses is recorded in
  * projection_failure (visible to admins) and returned in `failed`; the others are stored regardless.
  */
-export async function runProjectionBatch(d: Deps, ids: string[], now = new Date()): Promise<BatchResult> {
+export async function runProjectionBatch(d: Deps, ids: string[], now = new Date(), opts: { bays: 'all' | 'changed' } = { bays: 'all' }): Promise<BatchResult> {
+  if (!ids.length) return { projected: 0, raised: [], failed: [] };
   const pieces = await loadPiecesForProjection(d.ds, ids, now);
   const projected: Projected[] = [];
+  // A result equal to the stored one (most pieces on most nights) is only marked as computed now.
+  const changed: Array<{ row: Record<string, unknown>; inputsHash: string; resultHash: string; item: Projected }> = [];
+  const unchanged: Array<{ pieceId: string; inputsHash: string }> = [];
   const failed: BatchResult['failed'] = [];
   for (const piece of pieces) {
     if (piece.status === 'shipped') continue;
     try {
-      const result = projectPiece(piece.input);
-      projected.push({ piece, result, inputsHash: createHash('sha256').update(JSON.stringify(piece.input)).digest('hex') });
+      const item: Projected = { piece, result: projectPiece(piece.input), inputsHash: sha256(JSON.stringify(piece.input)) };
+      const row = projectionRow(item);
+      const resultHash = sha256(JSON.stringify(row));
+      projected.push(item);
+      if (resultHash === piece.storedResultHash) unchanged.push({ pieceId: piece.id, inputsHash: item.inputsHash });
+      else changed.push({ row, inputsHash: item.inputsHash, resultHash, item });
     } catch (error) {
       failed.push({ pieceId: piece.id, error });
     }
   }
   const shipped: WantedFlags[] = pieces.filter((p) => p.status === 'shipped').map((p) => ({ plantId: p.plantId, pieceId: p.id, flags: [] }));
   const raised = await d.ds.transaction(async (tx) => {
-    await saveProjections(tx, projected, now);
+    await saveProjections(tx, changed, now);
+    await touchProjections(tx, unchanged, now);
     if (projected.length) await tx.query(`DELETE FROM projection_failure WHERE piece_id = ANY($1::uuid[])`, [projected.map((x) => x.piece.id)]);
     await syncFlags(tx, shipped, FLAG_KINDS);
+    // A piece in no bay has no neighbours to mismatch (it may have just left one).
+    await syncFlags(tx, projected.filter((x) => !x.piece.bay).map((x) => ({ plantId: x.piece.plantId, pieceId: x.piece.id, flags: [] })), ['neighbour-mismatch']);
     return syncFlags(tx, projected.map((x) => ({ plantId: x.piece.plantId, pieceId: x.piece.id, flags: x.result.flags })), PIECE_KINDS);
   });
   if (failed.length) {
@@ -45,8 +57,10 @@ export async function runProjectionBatch(d: Deps, ids: string[], now = new Date(
       [JSON.stringify(failed.map((f) => ({ piece_id: f.pieceId, plant_id: plantOf.get(f.pieceId), message: (f.error instanceof Error ? f.error.message : String(f.error)).slice(0, 2000) })))],
     );
   }
+  // After an edit or a reading the bays of all the pieces are checked (a piece may have moved). The
+  // nightly run checks only bays whose projections changed, and sweeps every bay once besides.
   const bays = new Map<string, Bay>();
-  for (const { piece } of projected) if (piece.bay) bays.set(`${piece.plantId}|${piece.jobId}|${piece.bay}`, { plantId: piece.plantId, jobId: piece.jobId, bay: piece.bay, unit: piece.input.unit });
+  for (const { piece } of opts.bays === 'all' ? projected : changed.map((c) => c.item)) if (piece.bay) bays.set(`${piece.plantId}|${piece.jobId}|${piece.bay}`, { plantId: piece.plantId, jobId: piece.jobId, bay: piece.bay, unit: piece.input.unit });
   const bayRaised = await checkBays(d, [...bays.values()]);
   return { projected: projected.length, raised: [...raised, ...bayRaised], failed };
 }
@@ -89,6 +103,16 @@ export async function checkBays(d: Deps, bays: Bay[]): Promise<Array<{ pieceId: 
     }
   }
   return syncFlags(d.ds, wanted, ['neighbour-mismatch']);
+}
+
+/** The neighbour check of every bay with pieces in storage (the nightly run: membership may have changed). */
+export async function checkAllBays(d: Deps, plantId?: string): Promise<Array<{ pieceId: string; plantId: string }>> {
+  const bays: Array<{ plant_id: string; job_id: string; bay: string; unit_system: string }> = await d.ds.query(
+    `SELECT DISTINCT p.plant_id, p.job_id, p.bay, pl.unit_system FROM piece p JOIN plant pl ON pl.id = p.plant_id
+      WHERE p.bay IS NOT NULL AND p.status <> 'shipped' ${plantId ? 'AND p.plant_id = $1' : ''}`,
+    plantId ? [plantId] : [],
+  );
+  return checkBays(d, bays.map((b) => ({ plantId: b.plant_id, jobId: b.job_id, bay: b.bay, unit: b.unit_system === 'si' ? 'mm' : 'in' })));
 }
 
 /** The neighbour check of one erection bay (after a bay plan is saved). Returns how many flags it raised. */

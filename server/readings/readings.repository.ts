@@ -1,7 +1,6 @@
 import type { DataSource, EntityManager } from 'typeorm';
 import { isLikelyDistorted, type ReadingDto } from '#shared/api/readings';
 import { dateFormat } from '#shared/time/formatters';
-import { preparedRows } from '../db/prepared';
 
 // A piece page formats every reading of the piece: the formatter is made once (see shared/time).
 const localHour = (d: Date, timeZone: string): number => Number(dateFormat('en-GB', { hour: 'numeric', hourCycle: 'h23', timeZone }).format(d));
@@ -35,11 +34,6 @@ export function toReadingDto(r: Record<string, unknown>): ReadingDto {
     hasPhoto: Boolean(r.has_photo),
     likelyDistorted: isLikelyDistorted(r.sky as string | null, localHour(takenAt, String(r.time_zone))),
   };
-}
-
-export async function readingsOfPiece(db: DataSource | EntityManager, pieceId: string): Promise<ReadingDto[]> {
-  const rows = await preparedRows(db, `${READING_SELECT} WHERE r.piece_id = $1 ORDER BY r.taken_at DESC, r.received_at DESC`, [pieceId]);
-  return rows.map(toReadingDto);
 }
 
 export async function readingById(db: DataSource | EntityManager, id: string): Promise<ReadingDto | null> {

@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { memberCurve } from '#shared/camber/curve';
 import { predictInputSchema } from '#shared/camber/schema';
 import { dateInZone } from '#shared/yard/schedule';
-import { runProjection } from '#server/projections/projection.service';
+import { checkAllBays, runProjection, runProjectionBatch } from '#server/projections/projection.service';
 import { DEMO_DESIGNS } from '#seed/designs';
 import { signIn, testApp, type TestApp, type Session } from '../helpers/app';
 import { buildDesign, buildJob, buildPiece, buildPlantWithUsers, buildReading, PASSWORD } from '../helpers/factories';
@@ -122,17 +122,45 @@ describe('flags from the projection job', () => {
     expect(await flagsOf(b.id)).toContain('neighbour-mismatch');
     expect(await flagsOf(a.id)).not.toContain('neighbour-mismatch');
     expect(await flagsOf(c.id)).not.toContain('neighbour-mismatch');
+
+    // Moved out of the bay: its own run clears the flag, though its projection is unchanged.
+    await t.ds.query(`UPDATE piece SET bay = NULL, bay_position = NULL WHERE id = $1`, [b.id]);
+    await runProjection(t.deps, b.id);
+    expect(await flagsOf(b.id)).not.toContain('neighbour-mismatch');
+    // Put back without any projection run (as an import might): the nightly sweep of every bay finds it.
+    await t.ds.query(`UPDATE piece SET bay = 'Bay 9', bay_position = 2 WHERE id = $1`, [b.id]);
+    await runProjectionBatch(t.deps, [a.id, b.id, c.id], new Date(), { bays: 'changed' });
+    expect(await flagsOf(b.id)).not.toContain('neighbour-mismatch'); // nothing changed, so no bay was checked
+    await checkAllBays(t.deps, plant.plantId);
+    expect(await flagsOf(b.id)).toContain('neighbour-mismatch');
   });
 
   it('when the same projection runs twice, then the stored result and flags are the same', async () => {
     const p = await pieceWith(30, [{ age: 28, inches: (c) => c.toleranceHigh + 0.25 }]);
     const now = new Date();
     await runProjection(t.deps, p.id, now);
-    const first = await t.ds.query(`SELECT inputs_hash, ship_mm, growth_factor, curve FROM projection WHERE piece_id = $1`, [p.id]);
+    const first = await t.ds.query(`SELECT inputs_hash, result_hash, ship_mm, growth_factor, curve FROM projection WHERE piece_id = $1`, [p.id]);
     await runProjection(t.deps, p.id, now);
-    const second = await t.ds.query(`SELECT inputs_hash, ship_mm, growth_factor, curve FROM projection WHERE piece_id = $1`, [p.id]);
+    const second = await t.ds.query(`SELECT inputs_hash, result_hash, ship_mm, growth_factor, curve FROM projection WHERE piece_id = $1`, [p.id]);
     expect(second).toEqual(first);
     expect(await t.ds.query(`SELECT count(*)::int AS n FROM piece_flag WHERE piece_id = $1`, [p.id])).toEqual([{ n: 1 }]);
+  });
+
+  it('when a result is unchanged, then it is marked as computed again; when a reading changes it, then it is rewritten', async () => {
+    const p = await pieceWith(30, [{ age: 14, inches: (c) => c.camber }, { age: 28, inches: (c) => c.camber }]);
+    const row = async (): Promise<{ computed_at: Date; result_hash: string; latest_mm: string }> =>
+      (await t.ds.query(`SELECT computed_at, result_hash, latest_mm FROM projection WHERE piece_id = $1`, [p.id]))[0];
+    await runProjection(t.deps, p.id, new Date('2026-11-20T03:00:00Z'));
+    const first = await row();
+    await runProjection(t.deps, p.id, new Date('2026-11-20T04:00:00Z'));
+    const again = await row();
+    expect(again.result_hash).toBe(first.result_hash);
+    expect(again.computed_at.toISOString()).toBe('2026-11-20T04:00:00.000Z');
+    await addReading(p.id, curve.at(30).camber + 0.5);
+    await runProjection(t.deps, p.id, new Date('2026-11-20T05:00:00Z'));
+    const changed = await row();
+    expect(changed.result_hash).not.toBe(first.result_hash);
+    expect(changed.latest_mm).not.toBe(first.latest_mm);
   });
 });
 

@@ -1,6 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { signIn, testApp, type TestApp, type Session } from '../helpers/app';
-import { buildDesign, buildJob, buildPiece, buildPlant, buildUser, PASSWORD } from '../helpers/factories';
+import { pieceDetailSchema } from '#shared/api/piece-detail';
+import { readingById } from '#server/readings/readings.repository';
+import { buildDesign, buildJob, buildPiece, buildPlant, buildReading, buildUser, PASSWORD } from '../helpers/factories';
 
 let t: TestApp;
 let engineer: Session;
@@ -53,5 +55,28 @@ describe('GET /api/pieces', () => {
     expect(marks((await viewer.agent.get('/api/pieces')).body)).toEqual(['DT-104', 'DT-105']);
     const jobs = (await viewer.agent.get('/api/jobs')).body as Array<{ id: string }>;
     expect(jobs.map((j) => j.id)).toEqual([jobA]);
+  });
+});
+
+describe('GET /api/pieces/:id', () => {
+  it('when a piece has readings and decisions, then the page matches the shared contract and lists them newest first', async () => {
+    const plant = await buildPlant(t.ds);
+    const qc = await buildUser(t.ds, plant.id, 'qc_manager');
+    const piece = await buildPiece(t.ds, plant.id, { mark: 'DT-900' });
+    await buildReading(t.ds, plant.id, piece.id, qc.id, { valueMm: 31.75, takenAt: '2026-10-10T14:00:00Z' });
+    await buildReading(t.ds, plant.id, piece.id, qc.id, { valueMm: 33.3375, takenAt: '2026-10-20T14:00:00Z', sky: 'sun' });
+    await t.ds.query(`INSERT INTO decision (plant_id, piece_id, kind, comment, decided_by, decided_at) VALUES ($1, $2, 'hold', 'wait', $3, '2026-10-21T09:00:00Z')`, [plant.id, piece.id, qc.id]);
+    const s = await signIn(t.app, qc.email, PASSWORD);
+    const res = await s.agent.get(`/api/pieces/${piece.id}`);
+    expect(res.status).toBe(200);
+    const page = pieceDetailSchema.parse(res.body);
+    expect(page.piece.mark).toBe('DT-900');
+    expect(page.piece.latestReading).toEqual({ valueMm: 33.3375, takenAt: '2026-10-20T14:00:00.000Z' });
+    expect(page.readings.map((r) => [r.takenAt, r.valueMm])).toEqual([['2026-10-20T14:00:00.000Z', 33.3375], ['2026-10-10T14:00:00.000Z', 31.75]]);
+    expect(page.readings.map((r) => r.takenBy)).toEqual([expect.any(String), expect.any(String)]);
+    expect(page.decisions).toEqual([{ id: expect.any(String), kind: 'hold', comment: 'wait', decidedBy: expect.any(String), decidedAt: '2026-10-21T09:00:00.000Z' }]);
+    expect(page.design.productType).toBe('double-tee');
+    // The page describes each reading as the reading lookup does (one mapping, two queries).
+    for (const r of page.readings) expect(r).toEqual(await readingById(t.ds, r.id));
   });
 });
