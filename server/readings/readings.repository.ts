@@ -3,7 +3,8 @@ import { isLikelyDistorted, type ReadingDto } from '#shared/api/readings';
 import { dateFormat } from '#shared/time/formatters';
 
 // A piece page formats every reading of the piece: the formatter is made once (see shared/time).
-const localHour = (d: Date, timeZone: string): number => Number(dateFormat('en-GB', { hour: 'numeric', hourCycle: 'h23', timeZone }).format(d));
+const HOUR: Intl.DateTimeFormatOptions = { hour: 'numeric', hourCycle: 'h23' };
+const localHour = (d: Date, timeZone: string): number => Number(dateFormat('en-GB', HOUR, timeZone).format(d));
 
 export const READING_SELECT = `
   SELECT r.*, u.name AS taken_by_name, pl.time_zone,

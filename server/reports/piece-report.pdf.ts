@@ -19,7 +19,8 @@ const GREY = '#6b6962';
 const ACCENT = '#8a2e08';
 const BAD = '#a3171b';
 
-const when = (iso: string, tz: string): string => dateFormat('en-US', { dateStyle: 'medium', timeStyle: 'short', timeZone: tz }).format(new Date(iso));
+const DATE_TIME: Intl.DateTimeFormatOptions = { dateStyle: 'medium', timeStyle: 'short' };
+const when = (iso: string, tz: string): string => dateFormat('en-US', DATE_TIME, tz).format(new Date(iso));
 
 export function newReportDocument(): PDFKit.PDFDocument {
   const doc = new PDFDocument({ size: 'LETTER', margin: 48, info: { Title: 'Piece camber report', Creator: 'Crownwatch' } });

@@ -33,6 +33,8 @@ export function readingDue(p: { castDate: string; releaseDate: string; lastReadi
   return { dueSince: fromDay(latest), due, daysWaiting, overdue: due && daysWaiting > OVERDUE_AFTER_DAYS };
 }
 
+const ISO_DATE: Intl.DateTimeFormatOptions = { year: 'numeric', month: '2-digit', day: '2-digit' };
+
 /** Today's date in a time zone, as YYYY-MM-DD. */
 export const dateInZone = (d: Date, timeZone: string): string =>
-  dateFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit' }).format(d);
+  dateFormat('en-CA', ISO_DATE, timeZone).format(d);
