@@ -66,10 +66,6 @@ export async function loadPiecesForProjection(db: Db, ids: string[], now: Date):
   return ids.flatMap((id) => byId.get(id) ?? []);
 }
 
-export async function loadPieceForProjection(db: Db, pieceId: string, now: Date): Promise<PieceForProjection | null> {
-  return (await loadPiecesForProjection(db, [pieceId], now))[0] ?? null;
-}
-
 function toPieceForProjection(r: Record<string, unknown>, readings: Array<Record<string, unknown>>, { fs, adopted }: Family, now: Date): PieceForProjection {
   const tz = String(r.time_zone);
   // The family's settings override the design where the plant set them (method, humidity, band,
@@ -190,8 +186,9 @@ export async function syncFlags(db: Db, wanted: WantedFlags[], kinds: readonly s
   );
   await db.query(
     `UPDATE piece_flag f SET reason = w.reason, severity = w.severity FROM ${WANT}
-      WHERE f.piece_id = w.piece_id AND f.kind = w.kind AND f.cleared_at IS NULL AND (f.reason, f.severity) IS DISTINCT FROM (w.reason, w.severity)`,
-    [want],
+      WHERE f.piece_id = ANY($2::uuid[]) AND f.piece_id = w.piece_id AND f.kind = w.kind AND f.cleared_at IS NULL
+        AND (f.reason, f.severity) IS DISTINCT FROM (w.reason, w.severity)`,
+    [want, ids],
   );
   const raised: Array<{ piece_id: string; plant_id: string }> = await db.query(
     `INSERT INTO piece_flag (plant_id, piece_id, kind, severity, reason)
