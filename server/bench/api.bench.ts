@@ -53,10 +53,22 @@ async function main(): Promise<void> {
   const headers = { Cookie: cookies.map((c) => c.split(';')[0]).join('; '), 'X-CSRF-Token': /cw_csrf=([^;]+)/.exec(cookies.join(';'))![1]!, 'Content-Type': 'application/json' };
   const ids = data.pieceIds;
 
-  const anchor = await run(bareUrl, { connections: 10, duration: 10, path: (i) => `/bare/${ids[i % ids.length]}` });
-  const review = await run(`${oursUrl}/api/review?view=all-flagged&pageSize=50`, { connections: 10, duration: 10, headers });
-  const piece = await run(oursUrl, { connections: 10, duration: 10, headers, path: (i) => `/api/pieces/${ids[i % ids.length]}` });
-  const list = await run(`${oursUrl}/api/pieces?sort=shipDate&pageSize=50`, { connections: 10, duration: 10, headers });
+  // Rounds of the anchor and each list in turn, so a slow moment of the machine hits them alike; the
+  // figures are medians over the rounds with their spread, and each round's ratio is to its own anchor.
+  const rounds = Number(process.env.BENCH_ROUNDS ?? 3);
+  const GETS = {
+    anchor: { name: 'anchor: bare Express + pg by id', url: bareUrl, headers: {}, path: (i: number) => `/bare/${ids[i % ids.length]}` },
+    review: { name: 'review list (50 flagged pieces)', url: `${oursUrl}/api/review?view=all-flagged&pageSize=50`, headers, path: undefined },
+    piece: { name: 'piece page (detail + readings)', url: oursUrl, headers, path: (i: number) => `/api/pieces/${ids[i % ids.length]}` },
+    list: { name: 'piece list (50 of 50,000, latest reading)', url: `${oursUrl}/api/pieces?sort=shipDate&pageSize=50`, headers, path: undefined },
+  };
+  const results: Record<keyof typeof GETS, Result[]> = { anchor: [], review: [], piece: [], list: [] };
+  for (let r = 0; r < rounds; r++) {
+    for (const key of Object.keys(GETS) as Array<keyof typeof GETS>) {
+      const g = GETS[key];
+      results[key].push(await run(g.url, { connections: 10, duration: 10, headers: g.headers, path: g.path }));
+    }
+  }
   const before = Number((await ds.query(`SELECT count(*) FROM reading WHERE request_hash <> 'bench'`))[0].count);
   const post = await run(`${oursUrl}/api/readings`, {
     connections: 20, duration: 10, headers, method: 'POST',
@@ -64,11 +76,22 @@ async function main(): Promise<void> {
   });
   const after = Number((await ds.query(`SELECT count(*) FROM reading WHERE request_hash <> 'bench'`))[0].count);
 
+  const median = (xs: number[]): number => [...xs].sort((x, y) => x - y)[Math.floor(xs.length / 2)]!;
+  const spread = (xs: number[], digits = 0): string => `${Math.min(...xs).toFixed(digits)}–${Math.max(...xs).toFixed(digits)}`;
   const line = (name: string, r: Result): string => `${name.padEnd(42)} ${Math.round(r.rps).toString().padStart(6)} req/s   p99 ${String(r.p99).padStart(4)} ms   non-2xx ${r.non2xx}, errors ${r.errors}`;
-  console.log(line('anchor: bare Express + pg by id', anchor));
-  console.log(`${line('review list (50 flagged pieces)', review)}   ratio ${(review.rps / anchor.rps).toFixed(2)} req/s, ${(review.p99 / Math.max(1, anchor.p99)).toFixed(1)}× p99`);
-  console.log(`${line('piece page (detail + readings)', piece)}   ratio ${(piece.rps / anchor.rps).toFixed(2)} req/s, ${(piece.p99 / Math.max(1, anchor.p99)).toFixed(1)}× p99`);
-  console.log(`${line('piece list (50 of 50,000, latest reading)', list)}   ratio ${(list.rps / anchor.rps).toFixed(2)} req/s, ${(list.p99 / Math.max(1, anchor.p99)).toFixed(1)}× p99`);
+  console.log(`medians of ${rounds} rounds of 10 s, spread in brackets`);
+  for (const key of Object.keys(GETS) as Array<keyof typeof GETS>) {
+    const rs = results[key];
+    const rps = rs.map((x) => x.rps);
+    const p99 = rs.map((x) => x.p99);
+    let text = `${GETS[key].name.padEnd(42)} ${Math.round(median(rps)).toString().padStart(6)} req/s [${spread(rps)}]   p99 ${median(p99)} ms [${spread(p99)}]   non-2xx ${rs.reduce((n, x) => n + x.non2xx, 0)}, errors ${rs.reduce((n, x) => n + x.errors, 0)}`;
+    if (key !== 'anchor') {
+      const ratios = rs.map((x, i) => x.rps / results.anchor[i]!.rps);
+      const p99s = rs.map((x, i) => x.p99 / Math.max(1, results.anchor[i]!.p99));
+      text += `   ratio ${median(ratios).toFixed(2)} [${spread(ratios, 2)}] req/s, ${median(p99s).toFixed(1)}× [${spread(p99s, 1)}] p99`;
+    }
+    console.log(text);
+  }
   const [{ doubled }] = await ds.query(`SELECT count(*) - count(DISTINCT idempotency_key) AS doubled FROM reading WHERE request_hash <> 'bench'`);
   // Requests still in flight when the clock stops are stored but not counted by autocannon: rows ≥ acknowledged.
   console.log(`${line('reading POST, 20 connections', post)}   rows ${after - before} ≥ acknowledged ${post.ok}: ${after - before >= post.ok ? 'none lost' : 'LOST'}; doubled keys ${doubled}`);
