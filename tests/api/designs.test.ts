@@ -1,17 +1,14 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_DESIGNS } from '#seed/designs';
 import { runProjection } from '#server/projections/projection.service';
-import { signIn, testApp, type TestApp, type Session } from '../helpers/app';
-import { buildPlantWithUsers, buildReading, PASSWORD } from '../helpers/factories';
+import type { Session, TestApp } from '../helpers/app';
+import { appWithPlant, type PlantWithUsers } from '../helpers/fixture';
+import { buildReading } from '../helpers/factories';
 
 let t: TestApp;
-let plant: Awaited<ReturnType<typeof buildPlantWithUsers>>;
+let plant: PlantWithUsers;
 let eng: Session;
-beforeAll(async () => {
-  t = await testApp();
-  plant = await buildPlantWithUsers(t.ds);
-  eng = await signIn(t.app, plant.users.engineer.email, PASSWORD);
-});
+beforeAll(async () => ({ t, plant, session: eng } = await appWithPlant('engineer')));
 afterAll(() => t.close());
 
 const spec = DEMO_DESIGNS.find((x) => x.code === 'DT28-60')!.spec;

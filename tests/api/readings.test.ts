@@ -1,15 +1,12 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { signIn, testApp, type TestApp, type Session } from '../helpers/app';
-import { buildPiece, buildPlantWithUsers, PASSWORD } from '../helpers/factories';
+import type { Session, TestApp } from '../helpers/app';
+import { appWithPlant, type PlantWithUsers } from '../helpers/fixture';
+import { buildPiece, buildPlantWithUsers } from '../helpers/factories';
 
 let t: TestApp;
-let plant: Awaited<ReturnType<typeof buildPlantWithUsers>>;
+let plant: PlantWithUsers;
 let inspector: Session;
-beforeAll(async () => {
-  t = await testApp();
-  plant = await buildPlantWithUsers(t.ds);
-  inspector = await signIn(t.app, plant.users.inspector.email, PASSWORD);
-});
+beforeAll(async () => ({ t, plant, session: inspector } = await appWithPlant('inspector')));
 afterAll(() => t.close());
 
 const body = (pieceId: string, over: Record<string, unknown> = {}) => ({

@@ -1,17 +1,14 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { defaultFamilySettings } from '#shared/api/settings';
 import { runProjection } from '#server/projections/projection.service';
-import { signIn, testApp, type TestApp, type Session } from '../helpers/app';
-import { buildPiece, buildPlantWithUsers, buildReading, PASSWORD } from '../helpers/factories';
+import { signIn, type Session, type TestApp } from '../helpers/app';
+import { appWithPlant, type PlantWithUsers } from '../helpers/fixture';
+import { buildPiece, buildReading, PASSWORD } from '../helpers/factories';
 
 let t: TestApp;
-let plant: Awaited<ReturnType<typeof buildPlantWithUsers>>;
+let plant: PlantWithUsers;
 let eng: Session;
-beforeAll(async () => {
-  t = await testApp();
-  plant = await buildPlantWithUsers(t.ds);
-  eng = await signIn(t.app, plant.users.engineer.email, PASSWORD);
-});
+beforeAll(async () => ({ t, plant, session: eng } = await appWithPlant('engineer')));
 afterAll(() => t.close());
 
 const projection = async (pieceId: string) => (await t.ds.query(`SELECT tolerance_mm, growth_factor, readings_used FROM projection WHERE piece_id = $1`, [pieceId]))[0];
