@@ -1,5 +1,32 @@
 import type { MigrationInterface, QueryRunner } from 'typeorm';
 
+/** The refresh: drop each piece's row, or write it afresh from its active flags and latest decision (also used by ReviewItemRefresh). */
+export const REFRESH = `
+        DELETE FROM review_item r WHERE r.piece_id = ANY(ids)
+           AND NOT EXISTS (SELECT 1 FROM piece_flag f WHERE f.piece_id = r.piece_id AND f.cleared_at IS NULL);
+        INSERT INTO review_item (piece_id, plant_id, job_id, design_id, mark, bay, status, ship_date, max_severity, last_serious_at,
+                                 flag_kinds, flags, decision_kind, decided_at, needs_decision)
+        SELECT p.id, p.plant_id, p.job_id, p.design_id, p.mark, p.bay, p.status, p.ship_date, fl.max_severity, fl.last_serious_at,
+               fl.kinds, fl.flags, ld.kind, ld.decided_at,
+               fl.last_serious_at IS NOT NULL AND (ld.decided_at IS NULL OR fl.last_serious_at > ld.decided_at)
+          FROM piece p
+          JOIN LATERAL (
+            SELECT max(f.severity) AS max_severity,
+                   max(f.raised_at) FILTER (WHERE f.severity >= 2) AS last_serious_at,
+                   array_agg(f.kind ORDER BY f.kind) AS kinds,
+                   jsonb_agg(jsonb_build_object('kind', f.kind, 'severity', f.severity, 'reason', f.reason, 'raisedAt', f.raised_at)
+                             ORDER BY f.severity DESC, f.raised_at) AS flags
+              FROM piece_flag f WHERE f.piece_id = p.id AND f.cleared_at IS NULL
+            HAVING count(*) > 0) fl ON true
+          LEFT JOIN LATERAL (SELECT x.kind, x.decided_at FROM decision x WHERE x.piece_id = p.id ORDER BY x.decided_at DESC LIMIT 1) ld ON true
+         WHERE p.id = ANY(ids)
+        ON CONFLICT (piece_id) DO UPDATE SET
+          plant_id = EXCLUDED.plant_id, job_id = EXCLUDED.job_id, design_id = EXCLUDED.design_id, mark = EXCLUDED.mark, bay = EXCLUDED.bay,
+          status = EXCLUDED.status, ship_date = EXCLUDED.ship_date, max_severity = EXCLUDED.max_severity,
+          last_serious_at = EXCLUDED.last_serious_at, flag_kinds = EXCLUDED.flag_kinds, flags = EXCLUDED.flags,
+          decision_kind = EXCLUDED.decision_kind, decided_at = EXCLUDED.decided_at, needs_decision = EXCLUDED.needs_decision;
+`;
+
 /**
  * One stored row per flagged piece, so the review list reads a page through an index instead of
  * aggregating every active flag and the latest decision of every flagged piece on each request.
@@ -39,30 +66,7 @@ export class ReviewItem1796515200000 implements MigrationInterface {
         -- Wait for any other writer of these pieces first (in id order, so two refreshes cannot deadlock);
         -- the statements below then take a fresh snapshot and see what that writer committed.
         SELECT 1 FROM piece WHERE id = ANY(ids) ORDER BY id FOR NO KEY UPDATE;
-        DELETE FROM review_item r WHERE r.piece_id = ANY(ids)
-           AND NOT EXISTS (SELECT 1 FROM piece_flag f WHERE f.piece_id = r.piece_id AND f.cleared_at IS NULL);
-        INSERT INTO review_item (piece_id, plant_id, job_id, design_id, mark, bay, status, ship_date, max_severity, last_serious_at,
-                                 flag_kinds, flags, decision_kind, decided_at, needs_decision)
-        SELECT p.id, p.plant_id, p.job_id, p.design_id, p.mark, p.bay, p.status, p.ship_date, fl.max_severity, fl.last_serious_at,
-               fl.kinds, fl.flags, ld.kind, ld.decided_at,
-               fl.last_serious_at IS NOT NULL AND (ld.decided_at IS NULL OR fl.last_serious_at > ld.decided_at)
-          FROM piece p
-          JOIN LATERAL (
-            SELECT max(f.severity) AS max_severity,
-                   max(f.raised_at) FILTER (WHERE f.severity >= 2) AS last_serious_at,
-                   array_agg(f.kind ORDER BY f.kind) AS kinds,
-                   jsonb_agg(jsonb_build_object('kind', f.kind, 'severity', f.severity, 'reason', f.reason, 'raisedAt', f.raised_at)
-                             ORDER BY f.severity DESC, f.raised_at) AS flags
-              FROM piece_flag f WHERE f.piece_id = p.id AND f.cleared_at IS NULL
-            HAVING count(*) > 0) fl ON true
-          LEFT JOIN LATERAL (SELECT x.kind, x.decided_at FROM decision x WHERE x.piece_id = p.id ORDER BY x.decided_at DESC LIMIT 1) ld ON true
-         WHERE p.id = ANY(ids)
-        ON CONFLICT (piece_id) DO UPDATE SET
-          plant_id = EXCLUDED.plant_id, job_id = EXCLUDED.job_id, design_id = EXCLUDED.design_id, mark = EXCLUDED.mark, bay = EXCLUDED.bay,
-          status = EXCLUDED.status, ship_date = EXCLUDED.ship_date, max_severity = EXCLUDED.max_severity,
-          last_serious_at = EXCLUDED.last_serious_at, flag_kinds = EXCLUDED.flag_kinds, flags = EXCLUDED.flags,
-          decision_kind = EXCLUDED.decision_kind, decided_at = EXCLUDED.decided_at, needs_decision = EXCLUDED.needs_decision;
-      $$`);
+${REFRESH}      $$`);
     // One trigger function per table and event; each reads the transition table it is given.
     const hooks: Array<{ table: string; event: 'INSERT' | 'UPDATE' | 'DELETE'; rows: 'new' | 'old'; key: string }> = [
       { table: 'piece_flag', event: 'INSERT', rows: 'new', key: 'piece_id' },

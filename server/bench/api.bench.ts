@@ -10,6 +10,7 @@ import { createApp } from '../app';
 import { createDataSource } from '../db/data-source';
 import { createMailer } from '../mail/mailer';
 import { freshBenchDatabase, makeDataset } from './dataset';
+import { median, spread } from './stats';
 
 type Result = { rps: number; p99: number; non2xx: number; errors: number; ok: number };
 
@@ -76,8 +77,6 @@ async function main(): Promise<void> {
   });
   const after = Number((await ds.query(`SELECT count(*) FROM reading WHERE request_hash <> 'bench'`))[0].count);
 
-  const median = (xs: number[]): number => [...xs].sort((x, y) => x - y)[Math.floor(xs.length / 2)]!;
-  const spread = (xs: number[], digits = 0): string => `${Math.min(...xs).toFixed(digits)}–${Math.max(...xs).toFixed(digits)}`;
   const line = (name: string, r: Result): string => `${name.padEnd(42)} ${Math.round(r.rps).toString().padStart(6)} req/s   p99 ${String(r.p99).padStart(4)} ms   non-2xx ${r.non2xx}, errors ${r.errors}`;
   console.log(`medians of ${rounds} rounds of 10 s, spread in brackets`);
   for (const key of Object.keys(GETS) as Array<keyof typeof GETS>) {

@@ -16,6 +16,7 @@ import { migrate, prepareDatabase } from '../ops/database';
 import { postgresBinDir } from '../ops/postgres';
 import { hashPassword } from '../auth/password';
 import { DEMO_DESIGNS } from '#seed/designs';
+import { median, spread } from './stats';
 
 const ROWS = 100_000;
 const RUNS = 3;
@@ -70,8 +71,6 @@ async function main(): Promise<void> {
     if (r.status !== 0) throw new Error(`\\copy failed: ${r.stderr}`);
     copy.push(ROWS / (Number(process.hrtime.bigint() - c0) / 1e9));
   }
-  const median = (xs: number[]): number => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
-  const spread = (xs: number[]): string => `${Math.round(Math.min(...xs))}–${Math.round(Math.max(...xs))}`;
   console.log(`import: ${ROWS.toLocaleString('en-US')}-row readings CSV, ${RUNS} runs each`);
   console.log(`through the endpoint (upload + commit): median ${Math.round(median(ours)).toLocaleString('en-US')} rows/s (runs ${spread(ours)})`);
   console.log(`psql \\copy of the same rows, same table and indexes: median ${Math.round(median(copy)).toLocaleString('en-US')} rows/s (runs ${spread(copy)})`);

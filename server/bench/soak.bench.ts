@@ -13,6 +13,7 @@ import { createDataSource } from '../db/data-source';
 import { createJobs } from '../jobs/queue';
 import { createMailer } from '../mail/mailer';
 import { freshBenchDatabase, makeDataset } from './dataset';
+import { median } from './stats';
 
 const SECONDS = Number(process.env.SOAK_SECONDS ?? 600);
 const RATE = Number(process.env.SOAK_RATE ?? 50);
@@ -21,7 +22,6 @@ const SAMPLE_EVERY_S = Math.min(30, Math.max(5, Math.floor(SECONDS / 10)));
 interface Sample { atS: number; heapMb: number; rssMb: number; poolTotal: number; poolIdle: number; poolWaiting: number; handles: number }
 
 const gc = (globalThis as { gc?: () => void }).gc;
-const median = (xs: number[]): number => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)] ?? NaN;
 
 async function main(): Promise<void> {
   if (!gc) throw new Error('run with node --expose-gc (npm run bench:soak does)');

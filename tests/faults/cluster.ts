@@ -5,6 +5,10 @@ import { chownSync, mkdtempSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import pg from 'pg';
+import type { DataSource } from 'typeorm';
+import type { Role } from '#shared/api/roles';
+import { createDataSource } from '#server/db/data-source';
+import { migrate } from '#server/ops/database';
 import { postgresBinDir } from '#server/ops/postgres';
 
 const root = typeof process.getuid === 'function' && process.getuid() === 0;
@@ -45,4 +49,26 @@ export async function throwawayCluster(port: number): Promise<Cluster> {
       }
     },
   };
+}
+
+/** A throwaway cluster with the schema migrated, and a connection to it. */
+export async function migratedCluster(port: number, poolSize: number): Promise<{ cluster: Cluster; ds: DataSource }> {
+  const cluster = await throwawayCluster(port);
+  await migrate(cluster.url);
+  const ds = createDataSource(cluster.url, poolSize);
+  await ds.initialize();
+  return { cluster, ds };
+}
+
+/** The smallest plant a fault test needs: one user, one job, one design (an empty spec unless given). */
+export async function faultPlant(
+  ds: DataSource,
+  o: { tag: string; email: string; role: Role; passwordHash: string; design?: { code: string; name: string; productType: string; spec: unknown } },
+): Promise<{ plantId: string; userId: string; jobId: string; designId: string }> {
+  const d = o.design ?? { code: 'D', name: 'D', productType: 'beam', spec: {} };
+  const [plant] = await ds.query(`INSERT INTO plant (name, code, time_zone, unit_system) VALUES ($1, $1, 'UTC', 'us') RETURNING id`, [o.tag]);
+  const [user] = await ds.query(`INSERT INTO app_user (plant_id, email, name, role, password_hash) VALUES ($1, $2, $3, $4, $5) RETURNING id`, [plant.id, o.email, o.tag, o.role, o.passwordHash]);
+  const [job] = await ds.query(`INSERT INTO job (plant_id, number, name) VALUES ($1, 'J', 'J') RETURNING id`, [plant.id]);
+  const [design] = await ds.query(`INSERT INTO member_design (plant_id, code, name, product_type, spec) VALUES ($1, $2, $3, $4, $5) RETURNING id`, [plant.id, d.code, d.name, d.productType, JSON.stringify(d.spec)]);
+  return { plantId: plant.id, userId: user.id, jobId: job.id, designId: design.id };
 }

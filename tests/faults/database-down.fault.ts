@@ -3,29 +3,22 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '#server/app';
 import { loadConfig } from '#server/config';
-import { createDataSource } from '#server/db/data-source';
+import type { DataSource } from 'typeorm';
 import { createMailer } from '#server/mail/mailer';
-import { migrate } from '#server/ops/database';
 import { hashPassword } from '#server/auth/password';
-import { throwawayCluster, type Cluster } from './cluster';
+import { faultPlant, migratedCluster, type Cluster } from './cluster';
 
 let cluster: Cluster;
 let app: ReturnType<typeof createApp>;
-let ds: ReturnType<typeof createDataSource>;
+let ds: DataSource;
 let headers: Record<string, string>;
 let pieceId: string;
 
 beforeAll(async () => {
-  cluster = await throwawayCluster(54341);
-  await migrate(cluster.url);
+  ({ cluster, ds } = await migratedCluster(54341, 4));
   const cfg = loadConfig({ ...process.env, DATABASE_URL: cluster.url, NODE_ENV: 'test', LOG_LEVEL: 'silent' });
-  ds = createDataSource(cluster.url, 4);
-  await ds.initialize();
-  const [plant] = await ds.query(`INSERT INTO plant (name, code, time_zone, unit_system) VALUES ('F', 'F', 'UTC', 'us') RETURNING id`);
-  await ds.query(`INSERT INTO app_user (plant_id, email, name, role, password_hash) VALUES ($1, 'f@f.example', 'F', 'inspector', $2)`, [plant.id, await hashPassword('fault password 1', 10)]);
-  const [job] = await ds.query(`INSERT INTO job (plant_id, number, name) VALUES ($1, 'J', 'J') RETURNING id`, [plant.id]);
-  const [design] = await ds.query(`INSERT INTO member_design (plant_id, code, name, product_type, spec) VALUES ($1, 'D', 'D', 'beam', '{}') RETURNING id`, [plant.id]);
-  [{ id: pieceId }] = await ds.query(`INSERT INTO piece (plant_id, job_id, design_id, mark, cast_date, release_date) VALUES ($1, $2, $3, 'P-1', '2026-01-01', '2026-01-02') RETURNING id`, [plant.id, job.id, design.id]);
+  const plant = await faultPlant(ds, { tag: 'F', email: 'f@f.example', role: 'inspector', passwordHash: await hashPassword('fault password 1', 10) });
+  [{ id: pieceId }] = await ds.query(`INSERT INTO piece (plant_id, job_id, design_id, mark, cast_date, release_date) VALUES ($1, $2, $3, 'P-1', '2026-01-01', '2026-01-02') RETURNING id`, [plant.plantId, plant.jobId, plant.designId]);
   app = createApp({ ds, cfg, mailer: createMailer(cfg), log: pino({ level: 'silent' }) }, null);
   const login = await request(app).post('/api/auth/login').send({ email: 'f@f.example', password: 'fault password 1' });
   const cookies = ([] as string[]).concat(login.headers['set-cookie'] ?? []);

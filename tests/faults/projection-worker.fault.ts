@@ -2,12 +2,11 @@ import pino from 'pino';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_DESIGNS } from '#seed/designs';
 import { loadConfig } from '#server/config';
-import { createDataSource } from '#server/db/data-source';
+import type { DataSource } from 'typeorm';
 import { createJobs } from '#server/jobs/queue';
 import { createMailer } from '#server/mail/mailer';
-import { migrate } from '#server/ops/database';
 import { recomputeAll } from '#server/projections/projection.service';
-import { throwawayCluster, type Cluster } from './cluster';
+import { faultPlant, migratedCluster, type Cluster } from './cluster';
 import { exited, killLeftovers, startServerProcess } from './server-process';
 
 // A projection worker (the server process with its job workers) killed with SIGKILL while it works
@@ -17,31 +16,24 @@ const PORT = 5197;
 const PIECES = 2_000;
 const WORKER_ENV = { JOBS: 'on', PROJECTION_EXPIRE_SECONDS: '3', JOB_MAINTENANCE_SECONDS: '1' };
 let cluster: Cluster;
-let ds: ReturnType<typeof createDataSource>;
+let ds: DataSource;
 
 beforeAll(async () => {
-  cluster = await throwawayCluster(54343);
-  await migrate(cluster.url);
-  ds = createDataSource(cluster.url, 4);
-  await ds.initialize();
-  const [plant] = await ds.query(`INSERT INTO plant (name, code, time_zone, unit_system) VALUES ('W', 'W', 'UTC', 'us') RETURNING id`);
-  const [user] = await ds.query(`INSERT INTO app_user (plant_id, email, name, role, password_hash) VALUES ($1, 'w@w.example', 'W', 'inspector', 'x') RETURNING id`, [plant.id]);
-  const [job] = await ds.query(`INSERT INTO job (plant_id, number, name) VALUES ($1, 'J', 'J') RETURNING id`, [plant.id]);
-  const d = DEMO_DESIGNS[0]!;
-  const [design] = await ds.query(`INSERT INTO member_design (plant_id, code, name, product_type, spec) VALUES ($1, $2, $3, $4, $5) RETURNING id`, [plant.id, d.code, d.name, d.productType, JSON.stringify(d.spec)]);
+  ({ cluster, ds } = await migratedCluster(54343, 4));
+  const { plantId, userId, jobId, designId } = await faultPlant(ds, { tag: 'W', email: 'w@w.example', role: 'inspector', passwordHash: 'x', design: DEMO_DESIGNS[0]! });
   // Pieces cast 10 to 59 days ago, shipping in a month, in bays of ten, each with six readings that
   // wander around a plausible camber so that some pieces raise flags.
   await ds.query(
     `INSERT INTO piece (plant_id, job_id, design_id, mark, cast_date, release_date, ship_date, bay, bay_position, status)
      SELECT $1, $2, $3, 'W-' || g, current_date - 10 - g % 50, current_date - 9 - g % 50, current_date + 30, 'Bay ' || (g / 10), g % 10 + 1, 'in_storage'
        FROM generate_series(1, $4) g`,
-    [plant.id, job.id, design.id, PIECES],
+    [plantId, jobId, designId, PIECES],
   );
   await ds.query(
     `INSERT INTO reading (plant_id, piece_id, taken_at, value_mm, entered_text, entered_unit, method, support, taken_by, idempotency_key, request_hash)
      SELECT $1, p.id, p.release_date + r * interval '1 day' + interval '14 hours', 20 + r * 0.8 + (hashtext(p.mark) % 7), '1', 'in', 'level', 'dunnage', $2, p.id || '-' || r, 'fault'
        FROM piece p, generate_series(0, 5) r WHERE p.plant_id = $1`,
-    [plant.id, user.id],
+    [plantId, userId],
   );
 });
 afterAll(async () => {

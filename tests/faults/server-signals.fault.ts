@@ -1,26 +1,19 @@
 import type { ChildProcess } from 'node:child_process';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createDataSource } from '#server/db/data-source';
-import { migrate } from '#server/ops/database';
+import type { DataSource } from 'typeorm';
 import { hashPassword } from '#server/auth/password';
-import { throwawayCluster, type Cluster } from './cluster';
+import { faultPlant, migratedCluster, type Cluster } from './cluster';
 import { exited, killLeftovers, startServerProcess } from './server-process';
 
 // The server as a real process: SIGTERM while a long import commits, and SIGKILL in the middle of one.
 const PORT = 5196;
 let cluster: Cluster;
-let ds: ReturnType<typeof createDataSource>;
+let ds: DataSource;
 
 beforeAll(async () => {
-  cluster = await throwawayCluster(54342);
-  await migrate(cluster.url);
-  ds = createDataSource(cluster.url, 2);
-  await ds.initialize();
-  const [plant] = await ds.query(`INSERT INTO plant (name, code, time_zone, unit_system) VALUES ('S', 'S', 'UTC', 'us') RETURNING id`);
-  await ds.query(`INSERT INTO app_user (plant_id, email, name, role, password_hash) VALUES ($1, 's@s.example', 'S', 'engineer', $2)`, [plant.id, await hashPassword('signal password 1', 10)]);
-  const [job] = await ds.query(`INSERT INTO job (plant_id, number, name) VALUES ($1, 'J', 'J') RETURNING id`, [plant.id]);
-  const [design] = await ds.query(`INSERT INTO member_design (plant_id, code, name, product_type, spec) VALUES ($1, 'D', 'D', 'beam', '{}') RETURNING id`, [plant.id]);
-  for (let i = 0; i < 50; i++) await ds.query(`INSERT INTO piece (plant_id, job_id, design_id, mark, cast_date, release_date) VALUES ($1, $2, $3, $4, '2025-01-01', '2025-01-02')`, [plant.id, job.id, design.id, `S-${i}`]);
+  ({ cluster, ds } = await migratedCluster(54342, 2));
+  const plant = await faultPlant(ds, { tag: 'S', email: 's@s.example', role: 'engineer', passwordHash: await hashPassword('signal password 1', 10) });
+  for (let i = 0; i < 50; i++) await ds.query(`INSERT INTO piece (plant_id, job_id, design_id, mark, cast_date, release_date) VALUES ($1, $2, $3, $4, '2025-01-01', '2025-01-02')`, [plant.plantId, plant.jobId, plant.designId, `S-${i}`]);
 });
 afterAll(async () => {
   killLeftovers(); // never leave a server behind
