@@ -55,18 +55,29 @@ export function createApp(d: Deps, clientDir: string | null = CLIENT_DIR): Expre
       strictTransportSecurity: d.cfg.NODE_ENV === 'production',
     }),
   );
-  app.use(
-    pinoHttp({
-      logger: d.log,
-      genReqId: (req, res) => {
-        const id = randomUUID();
-        res.setHeader('X-Request-Id', id);
-        return id;
-      },
-      customProps: (req) => ({ userId: req.user?.id, role: req.user?.role }),
-      autoLogging: { ignore: (req) => !req.url?.startsWith('/api') },
-    }),
-  );
+  // A request log line costs a child logger and a serialised request per request (about a fifth of a
+  // signed-in read's CPU, measured); with logging off only the request id is kept.
+  if (d.log.isLevelEnabled('info')) {
+    app.use(
+      pinoHttp({
+        logger: d.log,
+        genReqId: (_req, res) => {
+          const id = randomUUID();
+          res.setHeader('X-Request-Id', id);
+          return id;
+        },
+        customProps: (req) => ({ userId: req.user?.id, role: req.user?.role }),
+        autoLogging: { ignore: (req) => !req.url?.startsWith('/api') },
+      }),
+    );
+  } else {
+    app.use((req, res, next) => {
+      req.id = randomUUID();
+      req.log = d.log;
+      res.setHeader('X-Request-Id', req.id);
+      next();
+    });
+  }
   const api = express.Router();
   api.use(express.json({ limit: '256kb' }));
   api.use(cookieParser());

@@ -48,7 +48,7 @@ export function exportRoutes(d: Deps): RouteDef[] {
     defineRoute({
       method: 'get', path: '/exports/review.csv', summary: 'The review list as CSV', roles: OFFICE, query: reviewQuerySchema, raw: true,
       handler: async ({ res, user, query }) => {
-        const list = await reviewList(d.ds, user, { ...query, page: 1, pageSize: 10_000 });
+        const list = (await reviewList(d.ds, user, { ...query, page: 1, pageSize: 10_000 })).value();
         send(res, 'review-list.csv', ['mark', 'job', 'bay', 'status', 'ship_date', 'days_to_ship', 'flags', 'reasons', 'latest_mm', 'expected_mm', 'projected_ship_mm'],
           list.items.map((r) => [r.mark, r.jobNumber, r.bay ?? '', r.status, r.shipDate ?? '', r.daysToShip, r.flags.map((f) => FLAG_LABELS[f.kind]).join('; '), r.flags.map((f) => f.reason).join(' | '), r.latest?.mm ?? null, r.latest?.expectedMm ?? null, r.atShip?.mm ?? null]));
       },

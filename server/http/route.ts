@@ -3,6 +3,7 @@ import type { z, ZodType } from 'zod';
 import { ERROR_CODES } from '#shared/api/errors';
 import type { SessionUser } from '#shared/api/auth';
 import type { Role } from '#shared/api/roles';
+import { JsonText } from '../db/json-sql';
 import { AppError, fieldErrorsOf, forbidden, unauthenticated } from './errors';
 
 /** What a `:id` in the path names, so the plant-isolation test can point it at another plant's data. */
@@ -64,6 +65,7 @@ export function mountRoutes(router: Router, routes: RouteDef[]): void {
       const result = await r.handler({ req, res, user: user as SessionUser, body, query, params });
       if (r.raw) return;
       if (result === undefined) res.status(r.status ?? 204).end();
+      else if (result instanceof JsonText) res.status(r.status ?? 200).type('application/json').send(result.text);
       else res.status(r.status ?? 200).json(result);
     };
     router[r.method](r.path, guard, ...(r.before ?? []), handler);

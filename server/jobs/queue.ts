@@ -5,6 +5,7 @@ import PgBoss from 'pg-boss';
 import { sendDigest } from '../alerts/digest.service';
 import type { Deps, Jobs } from '../deps';
 import { activePieceIds, checkAllBays, runProjectionBatch } from '../projections/projection.service';
+import { compactReviewCounts } from '../review/review.repository';
 
 /**
  * Projection jobs fetched at once (loaded, projected and stored together, a fixed number of statements
@@ -71,6 +72,7 @@ export async function createJobs(d: Deps, opts: { schedule: boolean }): Promise<
             const message = f.error instanceof Error ? f.error.message : String(f.error);
             for (const job of batch.filter((j) => j.data.pieceId === f.pieceId)) await boss.fail(QUEUES.projection, job.id, { message });
           }
+          await compactReviewCounts(d.ds);
           if (batch.length === PROJECTION_BATCH && worker.id) boss.notifyWorker(worker.id);
         });
       }
@@ -81,6 +83,7 @@ export async function createJobs(d: Deps, opts: { schedule: boolean }): Promise<
         // projection batches check only the bays of projections that changed.
         const raised = await checkAllBays(d);
         for (const plantId of new Set(raised.map((x) => x.plantId))) await jobs.alertDigest(plantId);
+        await compactReviewCounts(d.ds);
       });
       await boss.work<{ plantId: string }>(QUEUES.digest, { pollingIntervalSeconds: 2 }, async (batch) => {
         for (const job of batch) await sendDigest(d, job.data.plantId);

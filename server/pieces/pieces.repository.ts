@@ -1,17 +1,19 @@
 import type { DataSource } from 'typeorm';
 import type { z } from 'zod';
 import type { SessionUser } from '#shared/api/auth';
-import type { PiecePage, PieceRow, pieceListQuerySchema } from '#shared/api/pieces';
+import type { PiecePage, pieceListQuerySchema } from '#shared/api/pieces';
+import { isoSql, JsonText, numSql } from '../db/json-sql';
+import { preparedRows } from '../db/prepared';
 
 type ListQuery = z.output<typeof pieceListQuerySchema>;
 
-/** Sort keys to columns of the PIECE_SELECT result (never user text in SQL). */
+/** Sort keys to columns of a page's rows (never user text in SQL). */
 const SORT_SQL: Record<ListQuery['sort'], string> = {
-  mark: 'mark',
-  castDate: 'cast_date',
-  shipDate: 'ship_date',
-  status: 'status',
-  job: 'job_number',
+  mark: 'x.mark',
+  castDate: 'x.cast_date',
+  shipDate: 'x.ship_date',
+  status: 'x.status',
+  job: 'x.job_number',
 };
 
 /** The same sort keys on the piece and job tables, for paging before the page's rows are built. */
@@ -23,12 +25,9 @@ const BASE_SORT_SQL: Record<ListQuery['sort'], string> = {
   job: 'j.number',
 };
 
-export const PIECE_SELECT = `
-  SELECT p.id, p.mark, p.job_id, j.number AS job_number, p.design_id, d.code AS design_code, d.product_type,
-         p.bed, p.cast_date::text AS cast_date, p.release_date::text AS release_date, p.ship_date::text AS ship_date,
-         p.erection_date::text AS erection_date, p.bay, p.bay_position, p.status, p.version,
-         lr.value_mm AS latest_mm, lr.taken_at AS latest_at
-    FROM piece p
+/** A piece with its job, design and latest live reading: the tables the piece JSON below reads. */
+export const PIECE_FROM = `
+    piece p
     JOIN job j ON j.id = p.job_id
     JOIN member_design d ON d.id = p.design_id
     LEFT JOIN LATERAL (
@@ -36,32 +35,24 @@ export const PIECE_SELECT = `
        WHERE r.piece_id = p.id AND r.superseded_by IS NULL
        ORDER BY r.taken_at DESC LIMIT 1) lr ON true`;
 
-export function toPieceRow(r: Record<string, unknown>): PieceRow & { version: number } {
-  return {
-    id: String(r.id),
-    mark: String(r.mark),
-    jobId: String(r.job_id),
-    jobNumber: String(r.job_number),
-    designId: String(r.design_id),
-    designCode: String(r.design_code),
-    productType: String(r.product_type),
-    bed: (r.bed as string | null) ?? null,
-    castDate: String(r.cast_date),
-    releaseDate: String(r.release_date),
-    shipDate: (r.ship_date as string | null) ?? null,
-    erectionDate: (r.erection_date as string | null) ?? null,
-    bay: (r.bay as string | null) ?? null,
-    bayPosition: (r.bay_position as number | null) ?? null,
-    status: r.status as PieceRow['status'],
-    version: Number(r.version),
-    latestReading: r.latest_mm == null ? null : { valueMm: Number(r.latest_mm), takenAt: new Date(r.latest_at as string).toISOString() },
-  };
-}
+/** A piece row as the API describes it (`pieceRowSchema`, plus `version` on the piece page), over PIECE_FROM. */
+export const pieceJson = (withVersion: boolean): string => `json_build_object(
+    'id', p.id, 'mark', p.mark, 'jobId', p.job_id, 'jobNumber', j.number, 'designId', p.design_id, 'designCode', d.code,
+    'productType', d.product_type, 'bed', p.bed, 'castDate', p.cast_date::text, 'releaseDate', p.release_date::text,
+    'shipDate', p.ship_date::text, 'erectionDate', p.erection_date::text, 'bay', p.bay, 'bayPosition', p.bay_position,
+    'status', p.status,
+    'latestReading', CASE WHEN lr.value_mm IS NULL THEN NULL
+                     ELSE json_build_object('valueMm', ${numSql('lr.value_mm')}, 'takenAt', ${isoSql('lr.taken_at')}) END${withVersion ? `,
+    'version', p.version` : ''})`;
 
 /** Marks compare without spaces, dashes or case: "dt 104", "DT-104" and "dt104" are one mark. */
 export const markKey = (s: string): string => s.toLowerCase().replace(/[^a-z0-9]/g, '');
 
-export async function listPieces(ds: DataSource, user: SessionUser, q: ListQuery): Promise<PiecePage> {
+/**
+ * A page of the plant's pieces: paged on the piece's own columns first (an index per sort key), then the
+ * latest reading read for the page's rows only, so a page never sorts every piece of the plant.
+ */
+export async function listPieces(ds: DataSource, user: SessionUser, q: ListQuery): Promise<JsonText<PiecePage>> {
   const where = ['p.plant_id = $1'];
   const args: unknown[] = [user.plantId];
   const add = (sql: string, v: unknown): void => {
@@ -74,26 +65,17 @@ export async function listPieces(ds: DataSource, user: SessionUser, q: ListQuery
   if (q.productType) add('p.design_id IN (SELECT id FROM member_design WHERE plant_id = $1 AND product_type = ?)', q.productType);
   if (q.jobId) add('p.job_id = ?', q.jobId);
   const dir = q.dir === 'desc' ? 'DESC' : 'ASC';
-  args.push(q.pageSize, (q.page - 1) * q.pageSize);
-  // Page on the piece's own columns first (an index per sort key), then read the latest reading for the
-  // page's rows only; the total is counted apart, so the page never sorts every piece of the plant.
   const filter = where.join(' AND ');
-  const [rows, [count]] = await Promise.all([
-    ds.query(
-      `WITH page AS (SELECT p.id FROM piece p ${q.sort === 'job' ? 'JOIN job j ON j.id = p.job_id' : ''} WHERE ${filter} ORDER BY ${BASE_SORT_SQL[q.sort]} ${dir} NULLS LAST, p.mark ASC LIMIT $${args.length - 1} OFFSET $${args.length})
-       SELECT x.* FROM page CROSS JOIN LATERAL (${PIECE_SELECT} WHERE p.id = page.id) x
-        ORDER BY ${SORT_SQL[q.sort]} ${dir} NULLS LAST, mark ASC`,
-      args,
-    ) as Promise<Array<Record<string, unknown>>>,
-    ds.query(`SELECT count(*)::int AS total FROM piece p WHERE ${filter}`, args.slice(0, -2)) as Promise<Array<{ total: number }>>,
-  ]);
-  return {
-    items: rows.map((r) => {
-      const { version: _v, ...row } = toPieceRow(r);
-      return row;
-    }),
-    total: count?.total ?? 0,
-    page: q.page,
-    pageSize: q.pageSize,
-  };
+  const n = args.push(q.pageSize, (q.page - 1) * q.pageSize, q.page);
+  const [row] = await preparedRows<{ body: string }>(
+    ds,
+    `WITH page AS (SELECT p.id FROM piece p ${q.sort === 'job' ? 'JOIN job j ON j.id = p.job_id' : ''} WHERE ${filter} ORDER BY ${BASE_SORT_SQL[q.sort]} ${dir} NULLS LAST, p.mark ASC LIMIT $${n - 2} OFFSET $${n - 1})
+     SELECT json_build_object(
+              'items', coalesce((SELECT json_agg(x.doc ORDER BY ${SORT_SQL[q.sort]} ${dir} NULLS LAST, x.mark ASC) FROM page CROSS JOIN LATERAL (
+                 SELECT ${pieceJson(false)} AS doc, p.mark, p.cast_date, p.ship_date, p.status, j.number AS job_number FROM ${PIECE_FROM} WHERE p.id = page.id) x), '[]'),
+              'total', (SELECT count(*) FROM piece p WHERE ${filter}),
+              'page', $${n}::int, 'pageSize', $${n - 2}::int)::text AS body`,
+    args,
+  );
+  return new JsonText(row!.body);
 }

@@ -17,7 +17,7 @@ export interface PieceReportData {
 
 /** What the camber report of one piece prints, read with the same plant and job checks as the screens. */
 export async function pieceReportData(d: Deps, user: SessionUser, pieceId: string): Promise<PieceReportData> {
-  const detail = await pieceDetail(d, user, pieceId);
+  const detail = (await pieceDetail(d, user, pieceId)).value();
   const projection = await pieceProjection(d, user, pieceId);
   let sources: string[] = [];
   try {

@@ -1,24 +1,38 @@
 import type { DataSource } from 'typeorm';
 import type { SessionUser } from '#shared/api/auth';
-import type { FlagDto, ReviewQuery, ReviewRow } from '#shared/api/review';
-import type { PiecePage } from '#shared/api/pieces';
+import type { ReviewPage, ReviewQuery } from '#shared/api/review';
+import { isoSql, JsonText, numSql } from '../db/json-sql';
 import { dateInZone } from '#shared/yard/schedule';
 import { preparedRows } from '../db/prepared';
 
-/** Sort keys to SQL (never user text in SQL). Urgency: ship date first, then the worst flag. */
-const ORDER: Record<ReviewQuery['sort'], string> = {
-  urgency: 'ship_date ASC NULLS LAST, max_severity DESC, mark ASC',
-  mark: 'mark ASC',
-  shipDate: 'ship_date ASC NULLS LAST, mark ASC',
+/** Sort keys to SQL over a `review_item` row named `t` (never user text in SQL). Urgency: ship date first, then the worst flag. */
+const ORDER: Record<ReviewQuery['sort'], (t: string) => string> = {
+  urgency: (t) => `${t}.ship_date ASC NULLS LAST, ${t}.max_severity DESC, ${t}.mark ASC`,
+  mark: (t) => `${t}.mark ASC`,
+  shipDate: (t) => `${t}.ship_date ASC NULLS LAST, ${t}.mark ASC`,
 };
 
+/** A flagged piece as the review list describes it (`reviewRowSchema`), over a page row `page`, its job, design and projection. */
+const REVIEW_ROW_JSON = `json_build_object(
+    'pieceId', page.piece_id, 'mark', page.mark, 'jobNumber', j.number, 'productType', d.product_type, 'bay', page.bay,
+    'status', page.status, 'shipDate', page.ship_date::text, 'daysToShip', page.ship_date - $TODAY::date,
+    'flags', (SELECT json_agg(json_build_object('kind', f->>'kind', 'severity', (f->>'severity')::int, 'reason', f->>'reason',
+                                                'raisedAt', ${isoSql(`(f->>'raisedAt')::timestamptz`)}) ORDER BY n)
+                FROM jsonb_array_elements(page.flags) WITH ORDINALITY AS e(f, n)),
+    'latest', CASE WHEN pr.latest_mm IS NULL THEN NULL ELSE json_build_object(
+                'mm', ${numSql('pr.latest_mm')}, 'expectedMm', ${numSql('pr.latest_expected_mm')}, 'lowMm', ${numSql('pr.latest_low_mm')}, 'highMm', ${numSql('pr.latest_high_mm')}) END,
+    'atShip', CASE WHEN pr.ship_mm IS NULL THEN NULL ELSE json_build_object(
+                'mm', ${numSql('pr.ship_mm')}, 'lowMm', ${numSql('pr.ship_low_mm')}, 'highMm', ${numSql('pr.ship_high_mm')}) END,
+    'lastDecision', CASE WHEN page.decision_kind IS NULL THEN NULL ELSE json_build_object('kind', page.decision_kind, 'at', ${isoSql('page.decided_at')}) END)`;
+
 /**
- * Flagged pieces of the plant. "needs-decision": an active flag of severity ≥ 2 raised after the
- * piece's latest decision (or with no decision yet). Served from `review_item`, the row per flagged
- * piece that triggers keep (migration ReviewItem), so a page is read off an index: the list neither runs
- * the engine, nor scans readings, nor aggregates every flag of the plant on each request.
+ * Flagged pieces of the plant (`reviewPageSchema`). "needs-decision": an active flag of severity ≥ 2
+ * raised after the piece's latest decision (or with no decision yet). Served from `review_item`, the row
+ * per flagged piece that triggers keep (migration ReviewItem), so a page is read off an index: the list
+ * neither runs the engine, nor scans readings, nor aggregates every flag of the plant on each request;
+ * PostgreSQL writes the page's JSON (see db/json-sql).
  */
-export async function reviewList(ds: DataSource, user: SessionUser, q: ReviewQuery): Promise<Omit<PiecePage, 'items'> & { items: ReviewRow[] }> {
+export async function reviewList(ds: DataSource, user: SessionUser, q: ReviewQuery): Promise<JsonText<ReviewPage>> {
   const where = ['r.plant_id = $1', `r.status <> 'shipped'`];
   const args: unknown[] = [user.plantId];
   const add = (sql: string, v: unknown): void => {
@@ -31,43 +45,28 @@ export async function reviewList(ds: DataSource, user: SessionUser, q: ReviewQue
   if (q.flag) add('? = ANY(r.flag_kinds)', q.flag);
   if (q.view === 'needs-decision') where.push('r.needs_decision');
   const filter = where.join(' AND ');
-  args.push(q.pageSize, (q.page - 1) * q.pageSize);
-  const rows = await preparedRows(
+  // The unfiltered views' totals are kept (migration ReviewCount); a filtered view is counted.
+  const unfiltered = !q.jobId && !q.productType && !q.bay && !q.flag;
+  const total = unfiltered
+    ? `(SELECT coalesce(sum(${q.view === 'needs-decision' ? 'needs_decision' : 'flagged'}), 0) FROM review_count WHERE plant_id = $1)`
+    : `(SELECT count(*) FROM review_item r WHERE ${filter})`;
+  // Days to ship count from today on the plant's clock.
+  const n = args.push(q.pageSize, (q.page - 1) * q.pageSize, q.page, dateInZone(new Date(), user.timeZone));
+  const [row] = await preparedRows<{ body: string }>(
     ds,
-    `WITH page AS (SELECT r.* FROM review_item r WHERE ${filter} ORDER BY ${ORDER[q.sort]} LIMIT $${args.length - 1} OFFSET $${args.length})
-     SELECT page.piece_id AS id, page.mark, page.bay, page.status, page.ship_date::text AS ship_date, page.flags, page.decision_kind, page.decided_at,
-            j.number AS job_number, d.product_type,
-            pr.latest_mm, pr.latest_expected_mm, pr.latest_low_mm, pr.latest_high_mm, pr.ship_mm, pr.ship_low_mm, pr.ship_high_mm,
-            (SELECT count(*) FROM review_item r WHERE ${filter}) AS total
-       FROM page JOIN job j ON j.id = page.job_id JOIN member_design d ON d.id = page.design_id LEFT JOIN projection pr ON pr.piece_id = page.piece_id
-      ORDER BY ${ORDER[q.sort]}`,
+    `WITH page AS (SELECT r.* FROM review_item r WHERE ${filter} ORDER BY ${ORDER[q.sort]('r')} LIMIT $${n - 3} OFFSET $${n - 2})
+     SELECT json_build_object(
+              'items', coalesce((SELECT json_agg(${REVIEW_ROW_JSON.replace('$TODAY', `$${n}`)} ORDER BY ${ORDER[q.sort]('page')})
+                                   FROM page JOIN job j ON j.id = page.job_id JOIN member_design d ON d.id = page.design_id
+                                   LEFT JOIN projection pr ON pr.piece_id = page.piece_id), '[]'),
+              'total', ${total},
+              'page', $${n - 1}::int, 'pageSize', $${n - 3}::int)::text AS body`,
     args,
   );
-  const today = Date.parse(`${dateInZone(new Date(), user.timeZone)}T00:00:00Z`);
-  const num = (v: unknown): number => Number(v);
-  return {
-    items: rows.map((r) => ({
-      pieceId: String(r.id),
-      mark: String(r.mark),
-      jobNumber: String(r.job_number),
-      productType: String(r.product_type),
-      bay: (r.bay as string | null) ?? null,
-      status: r.status as ReviewRow['status'],
-      shipDate: (r.ship_date as string | null) ?? null,
-      daysToShip: r.ship_date ? Math.round((Date.parse(`${r.ship_date as string}T00:00:00Z`) - today) / 86_400_000) : null,
-      flags: ((r.flags as FlagDto[] | null) ?? []).map((f) => ({ ...f, raisedAt: new Date(f.raisedAt).toISOString() })),
-      latest: r.latest_mm == null ? null : { mm: num(r.latest_mm), expectedMm: num(r.latest_expected_mm), lowMm: num(r.latest_low_mm), highMm: num(r.latest_high_mm) },
-      atShip: r.ship_mm == null ? null : { mm: num(r.ship_mm), lowMm: num(r.ship_low_mm), highMm: num(r.ship_high_mm) },
-      lastDecision: r.decision_kind ? { kind: String(r.decision_kind), at: new Date(r.decided_at as string).toISOString() } : null,
-    })),
-    total: rows[0] ? Number(rows[0].total) : q.page > 1 ? await countOnly(ds, filter, args.slice(0, -2)) : 0,
-    page: q.page,
-    pageSize: q.pageSize,
-  };
+  return new JsonText(row!.body);
 }
 
-/** The total when the page asked for lies past the end (no row to carry it). */
-async function countOnly(ds: DataSource, filter: string, args: unknown[]): Promise<number> {
-  const [row] = await ds.query(`SELECT count(*) AS total FROM review_item r WHERE ${filter}`, args);
-  return Number(row.total);
+/** Folds the review totals' delta rows into one row per plant (migration ReviewCount). */
+export async function compactReviewCounts(ds: DataSource): Promise<void> {
+  await ds.query('SELECT review_count_compact()');
 }

@@ -72,10 +72,13 @@ export const readingSchema = z.object({
 });
 export type ReadingDto = z.infer<typeof readingSchema>;
 
+/** The afternoon-sun rule below as data, so the server's SQL (piece page, reading lookup) applies the same one. */
+export const SUN_DISTORTION = { sky: 'sun-on-top', fromHour: 12, toHour: 19 } as const;
+
 /**
  * Sun on the top flange heats it and bows the piece upward, most in the afternoon (engineering
  * reference §6.2, [MEM-H]); such readings are kept but marked so trends and flags treat them with care.
  */
 export function isLikelyDistorted(sky: string | null | undefined, localHour: number): boolean {
-  return sky === 'sun-on-top' && localHour >= 12 && localHour < 19;
+  return sky === SUN_DISTORTION.sky && localHour >= SUN_DISTORTION.fromHour && localHour < SUN_DISTORTION.toHour;
 }

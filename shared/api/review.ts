@@ -34,6 +34,7 @@ export const reviewRowSchema = z.object({
 });
 export type ReviewRow = z.infer<typeof reviewRowSchema>;
 export const reviewPageSchema = pagedSchema(reviewRowSchema);
+export type ReviewPage = z.infer<typeof reviewPageSchema>;
 
 export const DECISION_KINDS = ['accept', 'hold', 'engineering', 'remeasure', 'clear'] as const;
 export const DECISION_LABELS: Record<(typeof DECISION_KINDS)[number], string> = {

@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { memberCurve } from '#shared/camber/curve';
 import { predictInputSchema } from '#shared/camber/schema';
+import { reviewPageSchema } from '#shared/api/review';
 import { dateInZone } from '#shared/yard/schedule';
 import { checkAllBays, runProjection, runProjectionBatch } from '#server/projections/projection.service';
 import { DEMO_DESIGNS } from '#seed/designs';
@@ -168,10 +169,16 @@ describe('GET /api/review and decisions', () => {
   it('when a flagged piece gets a hold with a comment, then it leaves the "needs a decision" view but stays among all flagged', async () => {
     const p = await pieceWith(30, [{ age: 28, inches: (c) => c.toleranceHigh + 0.3 }], { shipInDays: 3 });
     await runProjection(t.deps, p.id);
-    const before = await qc.agent.get('/api/review');
-    const row = before.body.items.find((i: { pieceId: string }) => i.pieceId === p.id);
-    expect(row.flags[0].kind).toBe('outside-tolerance');
+    const before = reviewPageSchema.parse((await qc.agent.get('/api/review')).body);
+    const row = before.items.find((i) => i.pieceId === p.id)!;
+    expect(row.flags[0]!.kind).toBe('outside-tolerance');
     expect(row.daysToShip).toBe(3);
+    // Times as toISOString() writes them, whatever the database session's zone; values from the stored projection.
+    const [flag] = await t.ds.query(`SELECT raised_at, severity, reason FROM piece_flag WHERE piece_id = $1 AND kind = 'outside-tolerance' AND cleared_at IS NULL`, [p.id]);
+    expect(row.flags[0]).toEqual({ kind: 'outside-tolerance', severity: flag.severity, reason: flag.reason, raisedAt: new Date(flag.raised_at).toISOString() });
+    const [pr] = await t.ds.query(`SELECT latest_mm, ship_mm, ship_low_mm, ship_high_mm FROM projection WHERE piece_id = $1`, [p.id]);
+    expect([row.latest?.mm, row.atShip]).toEqual([Number(pr.latest_mm), { mm: Number(pr.ship_mm), lowMm: Number(pr.ship_low_mm), highMm: Number(pr.ship_high_mm) }]);
+    expect([row.status, row.lastDecision, before.page, before.pageSize]).toEqual(['in_storage', null, 1, 25]);
     const detail = await qc.agent.get(`/api/pieces/${p.id}`);
     const noComment = await qc.agent.post(`/api/pieces/${p.id}/decisions`).set('X-CSRF-Token', qc.csrf).send({ kind: 'hold', comment: '', version: detail.body.piece.version });
     expect(noComment.status).toBe(400);
@@ -180,8 +187,9 @@ describe('GET /api/review and decisions', () => {
     expect(hold.body.status).toBe('hold');
     const after = await qc.agent.get('/api/review');
     expect(after.body.items.some((i: { pieceId: string }) => i.pieceId === p.id)).toBe(false);
-    const all = await qc.agent.get('/api/review?view=all-flagged');
-    expect(all.body.items.find((i: { pieceId: string }) => i.pieceId === p.id).lastDecision.kind).toBe('hold');
+    const all = reviewPageSchema.parse((await qc.agent.get('/api/review?view=all-flagged')).body);
+    const [decided] = await t.ds.query(`SELECT decided_at FROM decision WHERE piece_id = $1`, [p.id]);
+    expect(all.items.find((i) => i.pieceId === p.id)!.lastDecision).toEqual({ kind: 'hold', at: new Date(decided.decided_at).toISOString() });
   });
   it('when two people decide on the same version at once, then one succeeds and the other gets 409 with the current state', async () => {
     const p = await pieceWith(30, [{ age: 28, inches: (c) => c.camber }]);

@@ -1,6 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { signIn, testApp, type TestApp, type Session } from '../helpers/app';
 import { pieceDetailSchema } from '#shared/api/piece-detail';
+import { piecePageSchema } from '#shared/api/pieces';
+import { isLikelyDistorted } from '#shared/api/readings';
 import { readingById } from '#server/readings/readings.repository';
 import { buildDesign, buildJob, buildPiece, buildPlant, buildReading, buildUser, PASSWORD } from '../helpers/factories';
 
@@ -43,6 +45,7 @@ describe('GET /api/pieces', () => {
     const res = await engineer.agent.get('/api/pieces?sort=castDate&dir=desc&pageSize=2&page=1');
     expect(marks(res.body)).toEqual(['HC-202', 'DT-104']);
     expect(res.body.total).toBe(5);
+    expect(piecePageSchema.parse(res.body)).toMatchObject({ page: 1, pageSize: 2 });
     const p3 = await engineer.agent.get('/api/pieces?sort=castDate&dir=desc&pageSize=2&page=3');
     expect(marks(p3.body)).toEqual(['DT 110']);
   });
@@ -78,5 +81,42 @@ describe('GET /api/pieces/:id', () => {
     expect(page.design.productType).toBe('double-tee');
     // The page describes each reading as the reading lookup does (one mapping, two queries).
     for (const r of page.readings) expect(r).toEqual(await readingById(t.ds, r.id));
+  });
+
+  it('when readings in afternoon sun are on the page, then each is marked by the shared rule on the plant clock', async () => {
+    const plant = await buildPlant(t.ds); // America/Chicago
+    const qc = await buildUser(t.ds, plant.id, 'qc_manager');
+    const piece = await buildPiece(t.ds, plant.id, { mark: 'DT-901' });
+    // Every hour of one November day (UTC−6), in sun and in shade; the SQL on the page must agree with
+    // isLikelyDistorted applied to the hour that the Intl clock of the plant's zone gives.
+    const hourOf = new Intl.DateTimeFormat('en-GB', { hour: 'numeric', hourCycle: 'h23', timeZone: 'America/Chicago' });
+    const expected = new Map<string, boolean>();
+    for (let h = 0; h < 24; h++) {
+      for (const sky of ['sun-on-top', 'overcast']) {
+        const takenAt = new Date(Date.UTC(2026, 10, 20, h, sky === 'overcast' ? 30 : 0));
+        const { id } = await buildReading(t.ds, plant.id, piece.id, qc.id, { takenAt: takenAt.toISOString(), sky });
+        expected.set(id, isLikelyDistorted(sky, Number(hourOf.format(takenAt))));
+      }
+    }
+    const s = await signIn(t.app, qc.email, PASSWORD);
+    const page = pieceDetailSchema.parse((await s.agent.get(`/api/pieces/${piece.id}`)).body);
+    expect(page.readings).toHaveLength(48);
+    expect(new Map(page.readings.map((r) => [r.id, r.likelyDistorted]))).toEqual(expected);
+    expect(page.readings.filter((r) => r.likelyDistorted).map((r) => r.takenAt).sort()).toEqual(
+      // 12:00–18:59 in Chicago is 18:00–00:59 UTC: 18–23 h of this day, and 00 h (18 h of the day before).
+      ['00', '18', '19', '20', '21', '22', '23'].map((h) => `2026-11-20T${h}:00:00.000Z`),
+    );
+  });
+
+  it('when a piece has no readings or decisions, then the page has empty lists and no latest reading', async () => {
+    const plant = await buildPlant(t.ds);
+    const qc = await buildUser(t.ds, plant.id, 'qc_manager');
+    const piece = await buildPiece(t.ds, plant.id, { mark: 'DT-902' });
+    const s = await signIn(t.app, qc.email, PASSWORD);
+    const res = await s.agent.get(`/api/pieces/${piece.id}`);
+    expect(res.headers['content-type']).toMatch(/^application\/json/);
+    const page = pieceDetailSchema.parse(res.body);
+    expect([page.readings, page.decisions, page.piece.latestReading, page.piece.bay, page.piece.bayPosition]).toEqual([[], [], null, null, null]);
+    expect(page.piece.version).toBe(1);
   });
 });

@@ -76,7 +76,7 @@ describe('migrations and the demo scenario on an empty database', () => {
       await recomputeAll(deps, { quiet: true });
       const [qc] = await ds.query(`SELECT id FROM app_user WHERE role = 'qc_manager'`);
       const user = (await loadSessionUser(ds, qc.id))!;
-      const list = await reviewList(ds, user, { view: 'needs-decision', sort: 'mark', dir: 'asc', page: 1, pageSize: 200 });
+      const list = (await reviewList(ds, user, { view: 'needs-decision', sort: 'mark', dir: 'asc', page: 1, pageSize: 200 })).value();
       const pieces: Array<{ mark: string; status: string }> = await ds.query(`SELECT mark, status FROM piece ORDER BY created_at`);
       const drifting = pieces.filter((p, i) => isDriftingIndex(i) && p.status !== 'shipped').map((p) => p.mark).sort();
       expect(drifting.length).toBeGreaterThan(0);

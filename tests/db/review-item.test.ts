@@ -28,7 +28,8 @@ type Op =
   | { op: 'decide'; piece: number; kind: 'accept' | 'hold' }
   | { op: 'edit'; piece: number; bay: string | null; ship: number }
   | { op: 'ship'; piece: number }
-  | { op: 'delete-flags'; piece: number };
+  | { op: 'delete-flags'; piece: number }
+  | { op: 'compact' };
 
 const opArb: fc.Arbitrary<Op> = fc.oneof(
   fc.record({ op: fc.constant('raise' as const), piece: fc.nat(3), kind: fc.constantFrom(...KINDS), severity: fc.integer({ min: 1, max: 3 }) }),
@@ -37,7 +38,12 @@ const opArb: fc.Arbitrary<Op> = fc.oneof(
   fc.record({ op: fc.constant('edit' as const), piece: fc.nat(3), bay: fc.option(fc.constantFrom('Bay 1', 'Bay 2')), ship: fc.integer({ min: 0, max: 30 }) }),
   fc.record({ op: fc.constant('ship' as const), piece: fc.nat(3) }),
   fc.record({ op: fc.constant('delete-flags' as const), piece: fc.nat(3) }),
+  fc.constant({ op: 'compact' as const }),
 );
+
+// The kept totals of the unfiltered views (migration ReviewCount) against a count of the summary rows.
+const KEPT_TOTALS = `SELECT coalesce(sum(flagged), 0)::int AS flagged, coalesce(sum(needs_decision), 0)::int AS needs_decision FROM review_count WHERE plant_id = $1`;
+const COUNTED_TOTALS = `SELECT count(*)::int AS flagged, (count(*) FILTER (WHERE needs_decision))::int AS needs_decision FROM review_item WHERE plant_id = $1 AND status <> 'shipped'`;
 
 describe('the stored review summary', () => {
   it('when flags, decisions and pieces change in any order, then the summary equals the one computed from scratch', async () => {
@@ -50,7 +56,7 @@ describe('the stored review summary', () => {
         let clock = Date.UTC(2026, 10, 1);
         const at = (): string => new Date((clock += 60_000)).toISOString();
         for (const o of ops) {
-          const id = pieces[o.piece];
+          const id = 'piece' in o ? pieces[o.piece] : undefined;
           if (o.op === 'raise') {
             await t.ds.query(
               `INSERT INTO piece_flag (plant_id, piece_id, kind, severity, reason, raised_at) VALUES ($1, $2, $3, $4, 'test', $5)
@@ -65,11 +71,14 @@ describe('the stored review summary', () => {
             await t.ds.query(`UPDATE piece SET bay = $2, ship_date = date '2026-12-01' + $3::int WHERE id = $1`, [id, o.bay, o.ship]);
           } else if (o.op === 'ship') {
             await t.ds.query(`UPDATE piece SET status = 'shipped' WHERE id = $1`, [id]);
-          } else {
+          } else if (o.op === 'delete-flags') {
             await t.ds.query(`DELETE FROM piece_flag WHERE piece_id = $1`, [id]);
+          } else {
+            await t.ds.query('SELECT review_count_compact()');
           }
         }
         expect(await t.ds.query(STORED, [plant.id])).toEqual(await t.ds.query(FROM_SCRATCH, [plant.id]));
+        expect(await t.ds.query(KEPT_TOTALS, [plant.id])).toEqual(await t.ds.query(COUNTED_TOTALS, [plant.id]));
       }),
       { numRuns: 25 },
     );
