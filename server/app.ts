@@ -8,6 +8,7 @@ import { pinoHttp } from 'pino-http';
 import { ERROR_CODES } from '#shared/api/errors';
 import { authRoutes } from './auth/auth.routes';
 import { sessionMiddleware } from './auth/session';
+import { uncachedSessionUsers } from './auth/session-users';
 import { camberRoutes } from './camber/camber.routes';
 import { ROOT } from './config';
 import type { Deps } from './deps';
@@ -81,7 +82,7 @@ export function createApp(d: Deps, clientDir: string | null = CLIENT_DIR): Expre
   const api = express.Router();
   api.use(express.json({ limit: '256kb' }));
   api.use(cookieParser());
-  api.use(sessionMiddleware(d.cfg, d.ds));
+  api.use(sessionMiddleware(d.cfg, d.sessions ?? uncachedSessionUsers(d.ds)));
   mountRoutes(api, buildRoutes(d));
   api.use((req, _res, next) => next(new AppError(404, ERROR_CODES.notFound, `no API route ${req.method} ${req.path}`)));
   app.use('/api', api);

@@ -1,6 +1,7 @@
 import type { Logger } from 'pino';
 import type { DataSource } from 'typeorm';
 import type { Config } from './config';
+import type { SessionUsers } from './auth/session-users';
 import type { Mailer } from './mail/mailer';
 
 /** The background work the API asks for; kept in PostgreSQL by pg-boss. */
@@ -17,4 +18,6 @@ export interface Deps {
   mailer: Mailer;
   log: Logger;
   jobs?: Jobs;
+  /** Who a session's user is; without it every request reads the user afresh. */
+  sessions?: SessionUsers;
 }

@@ -1,5 +1,6 @@
 import type { Server } from 'node:http';
 import { createApp } from './app';
+import { cachedSessionUsers } from './auth/session-users';
 import { loadConfig, type Config } from './config';
 import { createDataSource } from './db/data-source';
 import { createJobs } from './jobs/queue';
@@ -13,7 +14,8 @@ export async function startServer(cfg: Config = loadConfig()): Promise<Running> 
   const log = createLogger(cfg.LOG_LEVEL);
   const ds = createDataSource(cfg.databaseUrl);
   await ds.initialize();
-  const deps = { ds, cfg, mailer: createMailer(cfg), log };
+  const sessions = await cachedSessionUsers(ds, cfg.databaseUrl, log);
+  const deps = { ds, cfg, mailer: createMailer(cfg), log, sessions };
   const jobs = cfg.JOBS === 'on' ? await createJobs(deps, { schedule: true }) : null;
   if (jobs) await jobs.startWorkers();
   const app = createApp({ ...deps, jobs: jobs ?? undefined });
@@ -24,6 +26,7 @@ export async function startServer(cfg: Config = loadConfig()): Promise<Running> 
   const stop = async (): Promise<void> => {
     await new Promise<void>((r) => server.close(() => r()));
     await jobs?.stop();
+    await sessions.close();
     await ds.destroy();
   };
   return { server, url: cfg.publicUrl, stop };

@@ -5,12 +5,11 @@
 import { createSecretKey, type KeyObject, randomBytes, timingSafeEqual } from 'node:crypto';
 import type { Request, RequestHandler, Response } from 'express';
 import jwt from 'jsonwebtoken';
-import type { DataSource } from 'typeorm';
 import { ERROR_CODES } from '#shared/api/errors';
 import type { SessionUser } from '#shared/api/auth';
 import type { Config } from '../config';
 import { AppError } from '../http/errors';
-import { loadSessionUser } from '../users/users.repository';
+import type { SessionUsers } from './session-users';
 
 export const SESSION_COOKIE = 'cw_session';
 export const CSRF_COOKIE = 'cw_csrf';
@@ -50,9 +49,26 @@ export function clearSession(res: Response): void {
   res.clearCookie(CSRF_COOKIE, { path: '/' });
 }
 
+/**
+ * Tokens already verified, by their exact text (the same text carries the same signature): a session
+ * sends the same token for up to ten minutes, and checking its signature again is a needless HMAC and
+ * JSON parse per request. The expiry is still checked on every use.
+ */
+const verified = new Map<string, Claims>();
+const MAX_VERIFIED = 10_000;
+
 function verify(cfg: Config, token: string): Claims | null {
+  const known = verified.get(token);
+  if (known) {
+    if (known.exp * 1000 > Date.now()) return known;
+    verified.delete(token);
+    return null;
+  }
   try {
-    return jwt.verify(token, keyOf(cfg.jwtSecret), { algorithms: [ALGORITHM], issuer: ISSUER, audience: AUDIENCE }) as Claims;
+    const claims = jwt.verify(token, keyOf(cfg.jwtSecret), { algorithms: [ALGORITHM], issuer: ISSUER, audience: AUDIENCE }) as Claims;
+    if (verified.size >= MAX_VERIFIED) verified.clear();
+    verified.set(token, claims);
+    return claims;
   } catch {
     return null;
   }
@@ -61,7 +77,7 @@ function verify(cfg: Config, token: string): Claims | null {
 const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
 
 /** Reads the session cookie into req.user; enforces CSRF on state-changing requests of a session. */
-export function sessionMiddleware(cfg: Config, ds: DataSource): RequestHandler {
+export function sessionMiddleware(cfg: Config, sessions: SessionUsers): RequestHandler {
   return async (req, res, next) => {
     const token = req.cookies?.[SESSION_COOKIE] as string | undefined;
     if (!token) return next();
@@ -70,7 +86,7 @@ export function sessionMiddleware(cfg: Config, ds: DataSource): RequestHandler {
       clearSession(res);
       return next();
     }
-    const user: SessionUser | null = await loadSessionUser(ds, claims.sub);
+    const user: SessionUser | null = await sessions.get(claims.sub);
     if (!user) {
       clearSession(res);
       return next();

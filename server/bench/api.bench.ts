@@ -7,6 +7,7 @@ import express from 'express';
 import pg from 'pg';
 import pino from 'pino';
 import { createApp } from '../app';
+import { cachedSessionUsers } from '../auth/session-users';
 import { createDataSource } from '../db/data-source';
 import { createMailer } from '../mail/mailer';
 import { freshBenchDatabase, makeDataset } from './dataset';
@@ -41,7 +42,10 @@ async function main(): Promise<void> {
   const data = await makeDataset(ds);
   console.log(`dataset: 50,000 pieces, 1,000,000 readings, projections and flags made in ${((Date.now() - t0) / 1000).toFixed(1)} s`);
 
-  const ours = createApp({ ds, cfg: cfg0, mailer: createMailer(cfg0), log: pino({ level: 'silent' }) }, null).listen(0, '127.0.0.1');
+  // As the server runs: signed-in users kept in memory while their changes are listened for.
+  const log = pino({ level: 'silent' });
+  const sessions = await cachedSessionUsers(ds, cfg0.databaseUrl, log);
+  const ours = createApp({ ds, cfg: cfg0, mailer: createMailer(cfg0), log, sessions }, null).listen(0, '127.0.0.1');
   const pool = new pg.Pool({ connectionString: cfg0.databaseUrl, max: 10 });
   const bare = express();
   bare.get('/bare/:id', async (req, res) => res.json((await pool.query('SELECT * FROM piece WHERE id = $1', [req.params.id])).rows[0]));
@@ -98,6 +102,7 @@ async function main(): Promise<void> {
   ours.close();
   bareServer.close();
   await pool.end();
+  await sessions.close();
   await ds.destroy();
 }
 

@@ -9,6 +9,7 @@ import type pg from 'pg';
 import pino from 'pino';
 import type { PostgresDriver } from 'typeorm/driver/postgres/PostgresDriver.js';
 import { createApp } from '../app';
+import { cachedSessionUsers } from '../auth/session-users';
 import { createDataSource } from '../db/data-source';
 import { createJobs } from '../jobs/queue';
 import { createMailer } from '../mail/mailer';
@@ -29,7 +30,8 @@ async function main(): Promise<void> {
   const ds = createDataSource(cfg.databaseUrl, 10);
   await ds.initialize();
   const data = await makeDataset(ds, Number(process.env.SOAK_PIECES ?? 5_000));
-  const deps = { ds, cfg, mailer: createMailer(cfg), log: pino({ level: 'silent' }) };
+  const log = pino({ level: 'silent' });
+  const deps = { ds, cfg, mailer: createMailer(cfg), log, sessions: await cachedSessionUsers(ds, cfg.databaseUrl, log) };
   const jobs = await createJobs(deps, { schedule: false });
   await jobs.startWorkers();
   const server = createApp({ ...deps, jobs }, null).listen(0, '127.0.0.1');
@@ -98,6 +100,7 @@ async function main(): Promise<void> {
 
   server.close();
   await jobs.stop();
+  await deps.sessions.close();
   await ds.destroy();
 }
 

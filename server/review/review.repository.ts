@@ -16,9 +16,7 @@ const ORDER: Record<ReviewQuery['sort'], (t: string) => string> = {
 const REVIEW_ROW_JSON = `json_build_object(
     'pieceId', page.piece_id, 'mark', page.mark, 'jobNumber', j.number, 'productType', d.product_type, 'bay', page.bay,
     'status', page.status, 'shipDate', page.ship_date::text, 'daysToShip', page.ship_date - $TODAY::date,
-    'flags', (SELECT json_agg(json_build_object('kind', f->>'kind', 'severity', (f->>'severity')::int, 'reason', f->>'reason',
-                                                'raisedAt', ${isoSql(`(f->>'raisedAt')::timestamptz`)}) ORDER BY n)
-                FROM jsonb_array_elements(page.flags) WITH ORDINALITY AS e(f, n)),
+    'flags', page.flags,
     'latest', CASE WHEN pr.latest_mm IS NULL THEN NULL ELSE json_build_object(
                 'mm', ${numSql('pr.latest_mm')}, 'expectedMm', ${numSql('pr.latest_expected_mm')}, 'lowMm', ${numSql('pr.latest_low_mm')}, 'highMm', ${numSql('pr.latest_high_mm')}) END,
     'atShip', CASE WHEN pr.ship_mm IS NULL THEN NULL ELSE json_build_object(

@@ -46,6 +46,8 @@ export async function updateUser(d: Deps, admin: SessionUser, id: string, input:
     await tx.query(`UPDATE app_user SET role = coalesce($2, role), active = coalesce($3, active), updated_at = now() WHERE id = $1`, [id, input.role ?? null, input.active ?? null]);
     await audit(tx, { plantId: admin.plantId, userId: admin.id, action: 'update', entity: 'user', entityId: id, before, after: input });
   });
+  // The notification reaches every process; this one must not serve the old role even for a moment.
+  d.sessions?.forget();
   const all = await listUsers(d.ds, admin.plantId);
   return all.find((u) => u.id === id)!;
 }

@@ -8,7 +8,8 @@ let t: TestApp;
 let plant: Awaited<ReturnType<typeof buildPlantWithUsers>>;
 let admin: Session;
 beforeAll(async () => {
-  t = await testApp();
+  // With the session cache the server runs with: a deactivation must still end the session at once.
+  t = await testApp({}, { sessionCache: true });
   plant = await buildPlantWithUsers(t.ds);
   admin = await signIn(t.app, plant.users.admin.email, PASSWORD);
 });

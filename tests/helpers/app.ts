@@ -4,6 +4,7 @@ import pino from 'pino';
 import request from 'supertest';
 import type { DataSource } from 'typeorm';
 import { createApp } from '#server/app';
+import { cachedSessionUsers } from '#server/auth/session-users';
 import { loadConfig, type Config } from '#server/config';
 import { createDataSource } from '#server/db/data-source';
 import type { Deps } from '#server/deps';
@@ -12,13 +13,22 @@ import { createMailer } from '#server/mail/mailer';
 export interface TestApp { app: Express; ds: DataSource; cfg: Config; deps: Deps; close: () => Promise<void> }
 
 /** The real app on the real test database, one per test file; each test makes its own plant and users. */
-export async function testApp(overrides: Record<string, string> = {}): Promise<TestApp> {
+export async function testApp(overrides: Record<string, string> = {}, o: { sessionCache?: boolean; listenerName?: string } = {}): Promise<TestApp> {
   const cfg = loadConfig({ ...process.env, NODE_ENV: 'test', BCRYPT_COST: '10', LOG_LEVEL: 'silent', ...overrides });
   const ds = createDataSource(cfg.databaseUrl, 4);
   await ds.initialize();
-  const deps: Deps = { ds, cfg, mailer: createMailer(cfg), log: pino({ level: process.env.TEST_LOG ?? 'silent' }) };
+  const log = pino({ level: process.env.TEST_LOG ?? 'silent' });
+  // Most tests change users straight in the database; the cache (as the server runs it) is opt-in.
+  const sessions = o.sessionCache ? await cachedSessionUsers(ds, cfg.databaseUrl, log, o.listenerName) : undefined;
+  const deps: Deps = { ds, cfg, mailer: createMailer(cfg), log, sessions };
   const app = createApp(deps, null);
-  return { app, ds, cfg, deps, close: () => ds.destroy() };
+  return {
+    app, ds, cfg, deps,
+    close: async () => {
+      await sessions?.close();
+      await ds.destroy();
+    },
+  };
 }
 
 export interface Session { agent: ReturnType<typeof request.agent>; csrf: string; user: { id: string; plantId: string } }
