@@ -6,7 +6,8 @@ const RAISED_AT = `'raisedAt', f.raised_at)`;
 /** A flag's time as the API writes times (UTC, milliseconds, `Z`), fixed when the row is written. */
 const RAISED_AT_ISO = `'raisedAt', to_char(f.raised_at AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"'))`;
 
-function refreshWithIsoTimes(): string {
+/** The refresh with ISO flag times (also restored by ReviewItemDoc's down). */
+export function refreshWithIsoTimes(): string {
   if (!REFRESH.includes(RAISED_AT)) throw new Error('the review summary refresh no longer has the flag time to replace');
   return refreshFunction(REFRESH.replace(RAISED_AT, RAISED_AT_ISO));
 }

@@ -1,7 +1,7 @@
 import type { DataSource } from 'typeorm';
 import type { SessionUser } from '#shared/api/auth';
 import type { ReviewPage, ReviewQuery } from '#shared/api/review';
-import { isoSql, JsonText, numSql } from '../db/json-sql';
+import { JsonText } from '../db/json-sql';
 import { dateInZone } from '#shared/yard/schedule';
 import { preparedRows } from '../db/prepared';
 
@@ -12,23 +12,11 @@ const ORDER: Record<ReviewQuery['sort'], (t: string) => string> = {
   shipDate: (t) => `${t}.ship_date ASC NULLS LAST, ${t}.mark ASC`,
 };
 
-/** A flagged piece as the review list describes it (`reviewRowSchema`), over a page row `page`, its job, design and projection. */
-const REVIEW_ROW_JSON = `json_build_object(
-    'pieceId', page.piece_id, 'mark', page.mark, 'jobNumber', j.number, 'productType', d.product_type, 'bay', page.bay,
-    'status', page.status, 'shipDate', page.ship_date::text, 'daysToShip', page.ship_date - $TODAY::date,
-    'flags', page.flags,
-    'latest', CASE WHEN pr.latest_mm IS NULL THEN NULL ELSE json_build_object(
-                'mm', ${numSql('pr.latest_mm')}, 'expectedMm', ${numSql('pr.latest_expected_mm')}, 'lowMm', ${numSql('pr.latest_low_mm')}, 'highMm', ${numSql('pr.latest_high_mm')}) END,
-    'atShip', CASE WHEN pr.ship_mm IS NULL THEN NULL ELSE json_build_object(
-                'mm', ${numSql('pr.ship_mm')}, 'lowMm', ${numSql('pr.ship_low_mm')}, 'highMm', ${numSql('pr.ship_high_mm')}) END,
-    'lastDecision', CASE WHEN page.decision_kind IS NULL THEN NULL ELSE json_build_object('kind', page.decision_kind, 'at', ${isoSql('page.decided_at')}) END)`;
-
 /**
  * Flagged pieces of the plant (`reviewPageSchema`). "needs-decision": an active flag of severity ≥ 2
  * raised after the piece's latest decision (or with no decision yet). Served from `review_item`, the row
  * per flagged piece that triggers keep (migration ReviewItem), so a page is read off an index: the list
- * neither runs the engine, nor scans readings, nor aggregates every flag of the plant on each request;
- * PostgreSQL writes the page's JSON (see db/json-sql).
+ * neither runs the engine, nor scans readings, nor aggregates every flag of the plant on each request.
  */
 export async function reviewList(ds: DataSource, user: SessionUser, q: ReviewQuery): Promise<JsonText<ReviewPage>> {
   const where = ['r.plant_id = $1', `r.status <> 'shipped'`];
@@ -50,15 +38,14 @@ export async function reviewList(ds: DataSource, user: SessionUser, q: ReviewQue
     : `(SELECT count(*) FROM review_item r WHERE ${filter})`;
   // Days to ship count from today on the plant's clock.
   const n = args.push(q.pageSize, (q.page - 1) * q.pageSize, q.page, dateInZone(new Date(), user.timeZone));
+  // Each row's JSON is stored (migration ReviewItemDoc) but for its days to ship: the page is those
+  // rows joined as text, with the days put in front of each.
   const [row] = await preparedRows<{ body: string }>(
     ds,
-    `WITH page AS (SELECT r.* FROM review_item r WHERE ${filter} ORDER BY ${ORDER[q.sort]('r')} LIMIT $${n - 3} OFFSET $${n - 2})
-     SELECT json_build_object(
-              'items', coalesce((SELECT json_agg(${REVIEW_ROW_JSON.replace('$TODAY', `$${n}`)} ORDER BY ${ORDER[q.sort]('page')})
-                                   FROM page JOIN job j ON j.id = page.job_id JOIN member_design d ON d.id = page.design_id
-                                   LEFT JOIN projection pr ON pr.piece_id = page.piece_id), '[]'),
-              'total', ${total},
-              'page', $${n - 1}::int, 'pageSize', $${n - 3}::int)::text AS body`,
+    `WITH page AS (SELECT r.doc, r.ship_date, r.max_severity, r.mark FROM review_item r WHERE ${filter} ORDER BY ${ORDER[q.sort]('r')} LIMIT $${n - 3} OFFSET $${n - 2})
+     SELECT '{"items":[' || coalesce((SELECT string_agg('{"daysToShip":' || coalesce((page.ship_date - $${n}::date)::text, 'null') || ',' || substr(page.doc, 2), ','
+                                                        ORDER BY ${ORDER[q.sort]('page')}) FROM page), '')
+            || '],"total":' || ${total} || ',"page":' || $${n - 1}::int || ',"pageSize":' || $${n - 3}::int || '}' AS body`,
     args,
   );
   return new JsonText(row!.body);
