@@ -1,6 +1,6 @@
 // `npm run bench:nightly`: wall time of the nightly projection over every active piece of the plant-sized
-// dataset, queue included (the nightly job fans out one projection job per piece; the workers load,
-// project, store and flag them a batch at a time), beside the engine alone on the same inputs in one process.
+// dataset, queue included (the nightly job queues the pieces a hundred to a job; the workers load,
+// project, store and flag each batch), beside the engine alone on the same inputs in one process.
 // Target: ≤ 2× the engine alone. BENCH_PIECES makes a smaller dataset for a quick look.
 import pino from 'pino';
 import { projectPiece, type ProjectionInput } from '#shared/projection/project';
@@ -44,7 +44,7 @@ async function main(): Promise<void> {
     const q0 = Date.now();
     await fresh.boss.send(QUEUES.nightly, {});
     await sleep(1000);
-    while ((await fresh.boss.getQueueSize(QUEUES.nightly, { before: 'completed' })) > 0 || (await fresh.boss.getQueueSize(QUEUES.projection, { before: 'completed' })) > 0) await sleep(250);
+    while ((await fresh.boss.getQueueSize(QUEUES.nightly, { before: 'completed' })) > 0 || (await fresh.boss.getQueueSize(QUEUES.nightlyBatch, { before: 'completed' })) > 0) await sleep(250);
     const seconds = (Date.now() - q0) / 1000;
     const [{ n }] = await ds.query(`SELECT count(*)::int AS n FROM projection WHERE computed_at >= $1`, [new Date(q0)]);
     return { engineS, seconds, stored: n };

@@ -2,6 +2,7 @@ import type { DataSource, EntityManager } from 'typeorm';
 import type { DesignSpec } from '#shared/api/designs';
 import type { CurvePointMm, Flag, ProjectionInput, ProjectionResult } from '#shared/projection/project';
 import { dateInZone } from '#shared/yard/schedule';
+import { isoSql, numSql } from '../db/json-sql';
 import { adoptedFactor, familySettings } from '../settings/settings.repository';
 
 type Db = DataSource | EntityManager;
@@ -35,10 +36,15 @@ export async function loadPiecesForProjection(db: Db, ids: string[], now: Date):
       WHERE p.id = ANY($1::uuid[])`,
     [ids],
   );
-  const readings: Array<Record<string, unknown>> = await db.query(
-    `SELECT r.piece_id, r.id, r.taken_at, r.value_mm, r.support, r.sky, extract(hour FROM r.taken_at AT TIME ZONE pl.time_zone)::int AS local_hour
+  // Each piece's live readings as one JSON array, oldest first, with times as ISO text written by
+  // PostgreSQL: parsing twenty rows and timestamps a piece in Node was a large part of the nightly load
+  // (measured; the nightly run is bound by this process's one core).
+  const readings: Array<{ piece_id: string; list: ReadingTuple[] }> = await db.query(
+    `SELECT r.piece_id, json_agg(json_build_array(r.id, ${isoSql('r.taken_at')}, ${numSql('r.value_mm')}, r.support, r.sky,
+                                                  extract(hour FROM r.taken_at AT TIME ZONE pl.time_zone)::int) ORDER BY r.taken_at) AS list
        FROM reading r JOIN plant pl ON pl.id = r.plant_id
-      WHERE r.piece_id = ANY($1::uuid[]) AND r.superseded_by IS NULL ORDER BY r.piece_id, r.taken_at`,
+      WHERE r.piece_id = ANY($1::uuid[]) AND r.superseded_by IS NULL
+      GROUP BY r.piece_id`,
     [ids],
   );
   // Each design's spec once, not once per piece (a batch holds hundreds of pieces of a few designs).
@@ -46,12 +52,7 @@ export async function loadPiecesForProjection(db: Db, ids: string[], now: Date):
   const specs = new Map<string, DesignSpec>(
     (await db.query(`SELECT id, spec FROM member_design WHERE id = ANY($1::uuid[])`, [designIds]) as Array<{ id: string; spec: DesignSpec }>).map((x) => [x.id, x.spec]),
   );
-  const readingsOf = new Map<string, Array<Record<string, unknown>>>();
-  for (const x of readings) {
-    const list = readingsOf.get(String(x.piece_id));
-    if (list) list.push(x);
-    else readingsOf.set(String(x.piece_id), [x]);
-  }
+  const readingsOf = new Map(readings.map((x) => [x.piece_id, x.list]));
   const families = new Map<string, Family>();
   const byId = new Map<string, PieceForProjection>();
   for (const r of rows) {
@@ -66,7 +67,10 @@ export async function loadPiecesForProjection(db: Db, ids: string[], now: Date):
   return ids.flatMap((id) => byId.get(id) ?? []);
 }
 
-function toPieceForProjection(r: Record<string, unknown>, readings: Array<Record<string, unknown>>, { fs, adopted }: Family, now: Date): PieceForProjection {
+/** A reading as the load query writes it: id, taken at (ISO), value (mm), support, sky, hour on the plant's clock. */
+type ReadingTuple = [string, string, number, string, string | null, number];
+
+function toPieceForProjection(r: Record<string, unknown>, readings: ReadingTuple[], { fs, adopted }: Family, now: Date): PieceForProjection {
   const tz = String(r.time_zone);
   // The family's settings override the design where the plant set them (method, humidity, band,
   // tolerance, reading schedule); an adopted growth factor becomes the prior of the calibration.
@@ -99,22 +103,24 @@ function toPieceForProjection(r: Record<string, unknown>, readings: Array<Record
       erectionDate: (r.erection_date as string | null) ?? null,
       today: dateInZone(now, tz),
       unit: r.unit_system === 'si' ? 'mm' : 'in',
-      readings: readings.map((x) => ({
-        id: String(x.id),
-        takenAt: new Date(x.taken_at as string).toISOString(),
-        valueMm: Number(x.value_mm),
-        support: String(x.support),
-        sky: (x.sky as string | null) ?? null,
-        localHour: Number(x.local_hour),
-      })),
+      readings: readings.map(([id, takenAt, valueMm, support, sky, localHour]) => ({ id, takenAt, valueMm, support, sky, localHour })),
     },
   };
 }
 
 const n = (v: number | null | undefined): number | null => (v === undefined || v === null || !Number.isFinite(v) ? null : v);
 
-/** Curve points are stored to 0.01 mm and 0.01 day: far finer than a tape reads, half the JSON of full doubles. */
-const roundPoint = (p: CurvePointMm): CurvePointMm => Object.fromEntries(Object.entries(p).map(([k, v]) => [k, Math.round(v * 100) / 100])) as unknown as CurvePointMm;
+/**
+ * Curve points are stored to 0.01 mm and 0.01 day: far finer than a tape reads, half the JSON of full
+ * doubles. Field by field: the nightly run rounds millions of values (a generic copy was a third of the
+ * engine's own time, measured).
+ */
+const r2 = (v: number): number => Math.round(v * 100) / 100;
+const roundPoint = (p: CurvePointMm): CurvePointMm => ({
+  ageDays: r2(p.ageDays), camberMm: r2(p.camberMm), lowMm: r2(p.lowMm), highMm: r2(p.highMm),
+  toleranceLowMm: r2(p.toleranceLowMm), toleranceHighMm: r2(p.toleranceHighMm),
+  calibratedMm: r2(p.calibratedMm), calibratedLowMm: r2(p.calibratedLowMm), calibratedHighMm: r2(p.calibratedHighMm),
+});
 
 export interface Projected { piece: PieceForProjection; result: ProjectionResult; inputsHash: string }
 
@@ -166,37 +172,47 @@ export async function touchProjections(db: Db, items: Array<{ pieceId: string; i
   );
 }
 
-export interface WantedFlags { plantId: string; pieceId: string; flags: Flag[] }
+export interface WantedFlags {
+  plantId: string;
+  pieceId: string;
+  flags: Flag[];
+  /** The kinds decided for this piece; the call's kinds when absent. */
+  kinds?: readonly string[];
+}
 
 /**
- * Makes the active flags of some pieces equal to what is wanted, for the kinds given: raises new ones,
- * updates the reason and severity of those still true when they changed, clears the rest. Three
- * statements whatever the number of pieces. Returns the flags newly raised.
+ * Makes the active flags of some pieces equal to what is wanted, for the kinds decided for each: raises
+ * new ones, updates the reason and severity of those still true when they changed, clears the rest. One
+ * statement whatever the number of pieces (the nightly run syncs a hundred pieces per batch, and most
+ * syncs change nothing). Returns the flags newly raised.
  */
 export async function syncFlags(db: Db, wanted: WantedFlags[], kinds: readonly string[]): Promise<Array<{ pieceId: string; plantId: string }>> {
   if (!wanted.length) return [];
-  const ids = wanted.map((w) => w.pieceId);
   const want = JSON.stringify(wanted.flatMap((w) => w.flags.map((f) => ({ plant_id: w.plantId, piece_id: w.pieceId, kind: f.kind, severity: f.severity, reason: f.reason }))));
-  const WANT = `jsonb_to_recordset($1::jsonb) AS w(plant_id uuid, piece_id uuid, kind text, severity int, reason text)`;
-  await db.query(
-    `UPDATE piece_flag f SET cleared_at = now()
-      WHERE f.piece_id = ANY($2::uuid[]) AND f.cleared_at IS NULL AND f.kind = ANY($3::text[])
-        AND NOT EXISTS (SELECT 1 FROM ${WANT} WHERE w.piece_id = f.piece_id AND w.kind = f.kind)`,
-    [want, ids, kinds],
-  );
-  await db.query(
-    `UPDATE piece_flag f SET reason = w.reason, severity = w.severity FROM ${WANT}
-      WHERE f.piece_id = ANY($2::uuid[]) AND f.piece_id = w.piece_id AND f.kind = w.kind AND f.cleared_at IS NULL
-        AND (f.reason, f.severity) IS DISTINCT FROM (w.reason, w.severity)`,
-    [want, ids],
-  );
+  const scope = JSON.stringify(wanted.map((w) => ({ piece_id: w.pieceId, kinds: w.kinds ?? kinds })));
+  // The two updates touch different rows (kinds not wanted, kinds wanted) and the insert only kinds
+  // without an active flag, so the three parts of the statement never meet on a row. The id array
+  // lets the clearing read the pieces' flags through the index (joined to the list alone, the planner
+  // scanned every flag of the plant).
   const raised: Array<{ piece_id: string; plant_id: string }> = await db.query(
-    `INSERT INTO piece_flag (plant_id, piece_id, kind, severity, reason)
-     SELECT w.plant_id, w.piece_id, w.kind, w.severity, w.reason FROM ${WANT}
+    `WITH w AS (SELECT * FROM jsonb_to_recordset($1::jsonb) AS w(plant_id uuid, piece_id uuid, kind text, severity int, reason text)),
+          s AS (SELECT * FROM jsonb_to_recordset($2::jsonb) AS s(piece_id uuid, kinds text[])),
+          cleared AS (
+            UPDATE piece_flag f SET cleared_at = now() FROM s
+             WHERE f.piece_id = ANY($3::uuid[]) AND f.piece_id = s.piece_id AND f.cleared_at IS NULL AND f.kind = ANY(s.kinds)
+               AND NOT EXISTS (SELECT 1 FROM w WHERE w.piece_id = f.piece_id AND w.kind = f.kind)
+            RETURNING f.id),
+          changed AS (
+            UPDATE piece_flag f SET reason = w.reason, severity = w.severity FROM w
+             WHERE f.piece_id = w.piece_id AND f.kind = w.kind AND f.cleared_at IS NULL
+               AND (f.reason, f.severity) IS DISTINCT FROM (w.reason, w.severity)
+            RETURNING f.id)
+     INSERT INTO piece_flag (plant_id, piece_id, kind, severity, reason)
+     SELECT w.plant_id, w.piece_id, w.kind, w.severity, w.reason FROM w
       WHERE NOT EXISTS (SELECT 1 FROM piece_flag f WHERE f.piece_id = w.piece_id AND f.kind = w.kind AND f.cleared_at IS NULL)
      ON CONFLICT (piece_id, kind) WHERE cleared_at IS NULL DO NOTHING
      RETURNING piece_id, plant_id`,
-    [want],
+    [want, scope, wanted.map((w) => w.pieceId)],
   );
   return raised.map((r) => ({ pieceId: r.piece_id, plantId: r.plant_id }));
 }

@@ -43,10 +43,10 @@ export async function runProjectionBatch(d: Deps, ids: string[], now = new Date(
     await saveProjections(tx, changed, now);
     await touchProjections(tx, unchanged, now);
     if (projected.length) await tx.query(`DELETE FROM projection_failure WHERE piece_id = ANY($1::uuid[])`, [projected.map((x) => x.piece.id)]);
-    await syncFlags(tx, shipped, FLAG_KINDS);
-    // A piece in no bay has no neighbours to mismatch (it may have just left one).
-    await syncFlags(tx, projected.filter((x) => !x.piece.bay).map((x) => ({ plantId: x.piece.plantId, pieceId: x.piece.id, flags: [] })), ['neighbour-mismatch']);
-    return syncFlags(tx, projected.map((x) => ({ plantId: x.piece.plantId, pieceId: x.piece.id, flags: x.result.flags })), PIECE_KINDS);
+    // A shipped piece keeps no flag; a piece in no bay has no neighbours to mismatch (it may have just
+    // left one); the neighbour flag of a piece in a bay is the bay check's to decide.
+    const pieceFlags = projected.map((x) => ({ plantId: x.piece.plantId, pieceId: x.piece.id, flags: x.result.flags, kinds: x.piece.bay ? PIECE_KINDS : FLAG_KINDS }));
+    return syncFlags(tx, [...shipped, ...pieceFlags], FLAG_KINDS);
   });
   if (failed.length) {
     const plantOf = new Map(pieces.map((p) => [p.id, p.plantId]));

@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_DESIGNS } from '#seed/designs';
 import { loadConfig } from '#server/config';
 import type { DataSource } from 'typeorm';
-import { createJobs } from '#server/jobs/queue';
+import { createJobs, QUEUES } from '#server/jobs/queue';
 import { createMailer } from '#server/mail/mailer';
 import { recomputeAll } from '#server/projections/projection.service';
 import { faultPlant, migratedCluster, type Cluster } from './cluster';
@@ -61,7 +61,7 @@ describe('a projection worker killed mid-job', () => {
     let active = 0;
     for (let k = 0; k < 2_000 && active === 0; k++) {
       const done = await count(`SELECT count(*)::int AS n FROM projection`);
-      if (done > 0) active = await count(`SELECT count(*)::int AS n FROM pgboss.job WHERE name = 'projection' AND state = 'active'`);
+      if (done > 0) active = await count(`SELECT count(*)::int AS n FROM pgboss.job WHERE name = '${QUEUES.nightlyBatch}' AND state = 'active'`);
       if (active === 0) await new Promise((r) => setTimeout(r, 10));
     }
     worker.kill('SIGKILL');
@@ -72,14 +72,14 @@ describe('a projection worker killed mid-job', () => {
 
     worker = await startServerProcess(PORT, cluster.url, WORKER_ENV);
     const until = Date.now() + 120_000;
-    while (Date.now() < until && (await count(`SELECT count(*)::int AS n FROM pgboss.job WHERE name = 'projection' AND state < 'completed'`)) > 0) {
+    while (Date.now() < until && (await count(`SELECT count(*)::int AS n FROM pgboss.job WHERE name = '${QUEUES.nightlyBatch}' AND state < 'completed'`)) > 0) {
       await new Promise((r) => setTimeout(r, 250));
     }
     const exit = exited(worker);
     worker.kill('SIGTERM');
     expect(await exit).toBe(0);
     await queue.stop();
-    expect(await count(`SELECT count(*)::int AS n FROM pgboss.job WHERE name = 'projection' AND state <> 'completed'`)).toBe(0);
+    expect(await count(`SELECT count(*)::int AS n FROM pgboss.job WHERE name = '${QUEUES.nightlyBatch}' AND state <> 'completed'`)).toBe(0);
     expect(await count(`SELECT count(*)::int AS n FROM projection_failure`)).toBe(0);
 
     const afterCrash = await stored();
