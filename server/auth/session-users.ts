@@ -52,18 +52,20 @@ export async function cachedSessionUsers(ds: DataSource, databaseUrl: string, lo
     try {
       await c.connect();
       c.on('notification', forget);
-      c.on('end', () => {
-        client = null;
-        forget();
-        if (!closed) retry = setTimeout(() => void listen(), RETRY_MS);
-      });
       await c.query(`LISTEN ${SESSION_USERS_CHANNEL}`);
-      forget(); // whatever changed while nobody was listening
-      client = c;
     } catch {
       await c.end().catch(() => undefined);
-      if (!closed && !retry) retry = setTimeout(() => void listen(), RETRY_MS);
+      if (!closed) retry = setTimeout(() => void listen(), RETRY_MS);
+      return;
     }
+    // Only a connection that listens schedules the next attempt when it ends, so there is one at a time.
+    c.on('end', () => {
+      client = null;
+      forget();
+      if (!closed) retry = setTimeout(() => void listen(), RETRY_MS);
+    });
+    forget(); // whatever changed while nobody was listening
+    client = c;
   };
   await listen();
 
