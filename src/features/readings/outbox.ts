@@ -84,10 +84,19 @@ export async function retry(key: string): Promise<void> {
 const transient = (e: ApiFailure): boolean => e.status === 0 || e.status === 408 || e.status === 429 || e.status >= 500;
 
 let running: Promise<void> | null = null;
+let again = false;
 
-/** Sends what waits, oldest first. Safe to call any time; one round runs at a time. */
+/**
+ * Sends what waits, oldest first. Safe to call any time; one round runs at a time. A call during a round
+ * (the inspector taps "Send now" while an answer is still on its way) gets one more round after it, so a
+ * round that ends on a lost answer is not the last word.
+ */
 export function flush(): Promise<void> {
-  running ??= (async () => {
+  if (running) {
+    again = true;
+    return running;
+  }
+  running = (async () => {
     emit({ sending: true });
     try {
       for (;;) {
@@ -119,6 +128,10 @@ export function flush(): Promise<void> {
     } finally {
       emit({ sending: false });
       running = null;
+      if (again) {
+        again = false;
+        void flush();
+      }
     }
   })();
   return running;
