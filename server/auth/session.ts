@@ -50,14 +50,16 @@ export function clearSession(res: Response): void {
 }
 
 /**
- * Tokens already verified, by their exact text (the same text carries the same signature): a session
- * sends the same token for up to ten minutes, and checking its signature again is a needless HMAC and
- * JSON parse per request. The expiry is still checked on every use.
+ * Tokens already verified, per secret and by their exact text (the same text carries the same
+ * signature): a session sends the same token for up to ten minutes, and checking its signature again is
+ * a needless HMAC and JSON parse per request. The expiry is still checked on every use.
  */
-const verified = new Map<string, Claims>();
+const verifiedBySecret = new Map<string, Map<string, Claims>>();
 const MAX_VERIFIED = 10_000;
 
 function verify(cfg: Config, token: string): Claims | null {
+  let verified = verifiedBySecret.get(cfg.jwtSecret);
+  if (!verified) verifiedBySecret.set(cfg.jwtSecret, (verified = new Map()));
   const known = verified.get(token);
   if (known) {
     if (known.exp * 1000 > Date.now()) return known;

@@ -91,6 +91,17 @@ describe('session tokens', () => {
     const token = jwt.sign(claims, 'another-secret-another-secret-0123', { ...opts, subject: u.id, algorithm: 'HS256', expiresIn: 600 });
     expect((await me(token)).status).toBe(401);
   });
+  it('when a token was accepted by a server with another secret in the same process, then this one still refuses it', async () => {
+    const u = await buildUser(t.ds, plantId, 'admin');
+    const other = await testApp({ JWT_SECRET: 'a-second-server-secret-0123456789abc' });
+    try {
+      const token = jwt.sign(claims, other.cfg.jwtSecret, { ...opts, subject: u.id, algorithm: 'HS256', expiresIn: 600 });
+      expect((await request(other.app).get('/api/auth/me').set('Cookie', `cw_session=${token}`)).status).toBe(200);
+      expect((await me(token)).status).toBe(401); // verified tokens are remembered per secret
+    } finally {
+      await other.close();
+    }
+  });
 });
 
 describe('POST /api/auth/logout and CSRF', () => {
