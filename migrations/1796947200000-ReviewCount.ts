@@ -35,20 +35,16 @@ export class ReviewCount1796947200000 implements MigrationInterface {
         HAVING sum(f) <> 0 OR sum(n) <> 0;
         RETURN NULL;
       END $$`);
-    await q.query(`
-      CREATE FUNCTION review_count_insert() RETURNS trigger LANGUAGE plpgsql AS $$
-      BEGIN
-        INSERT INTO review_count (plant_id, flagged, needs_decision)
-        SELECT plant_id, count(*), count(*) FILTER (WHERE needs_decision) FROM new_rows WHERE status <> 'shipped' GROUP BY plant_id;
-        RETURN NULL;
-      END $$`);
-    await q.query(`
-      CREATE FUNCTION review_count_delete() RETURNS trigger LANGUAGE plpgsql AS $$
-      BEGIN
-        INSERT INTO review_count (plant_id, flagged, needs_decision)
-        SELECT plant_id, -count(*), -count(*) FILTER (WHERE needs_decision) FROM old_rows WHERE status <> 'shipped' GROUP BY plant_id;
-        RETURN NULL;
-      END $$`);
+    // Rows added count up, rows removed count down.
+    for (const [fn, rows, sign] of [['review_count_insert', 'new_rows', ''], ['review_count_delete', 'old_rows', '-']] as const) {
+      await q.query(`
+        CREATE FUNCTION ${fn}() RETURNS trigger LANGUAGE plpgsql AS $$
+        BEGIN
+          INSERT INTO review_count (plant_id, flagged, needs_decision)
+          SELECT plant_id, ${sign}count(*), ${sign}count(*) FILTER (WHERE needs_decision) FROM ${rows} WHERE status <> 'shipped' GROUP BY plant_id;
+          RETURN NULL;
+        END $$`);
+    }
     await q.query(`CREATE TRIGGER review_count_insert AFTER INSERT ON review_item REFERENCING NEW TABLE AS new_rows FOR EACH STATEMENT EXECUTE FUNCTION review_count_insert()`);
     await q.query(`CREATE TRIGGER review_count_update AFTER UPDATE ON review_item REFERENCING OLD TABLE AS old_rows NEW TABLE AS new_rows FOR EACH STATEMENT EXECUTE FUNCTION review_count_delta()`);
     await q.query(`CREATE TRIGGER review_count_delete AFTER DELETE ON review_item REFERENCING OLD TABLE AS old_rows FOR EACH STATEMENT EXECUTE FUNCTION review_count_delete()`);
