@@ -64,15 +64,16 @@ export async function createJobs(d: Deps, opts: { schedule: boolean }): Promise<
       // to fetch again at once, so a nightly run of hundreds of batches is not paced by the interval.
       // Trouble with the database fails the batch and the queue retries it (a re-run stores the same
       // result); a piece the engine refuses fails its own job only.
-      const afterRun = async (r: BatchResult): Promise<void> => {
-        for (const plantId of new Set(r.raised.map((x) => x.plantId))) await jobs.alertDigest(plantId);
+      // New flags mean a digest for their plants; the review totals' delta rows are folded each time.
+      const afterRun = async (raised: BatchResult['raised']): Promise<void> => {
+        for (const plantId of new Set(raised.map((x) => x.plantId))) await jobs.alertDigest(plantId);
         await compactReviewCounts(d.ds);
       };
       for (let w = 0; w < PROJECTION_WORKERS; w++) {
         const worker = { id: '' }; // known once work() returns, before the first batch ends
         worker.id = await boss.work<{ pieceId: string }>(QUEUES.projection, { batchSize: PROJECTION_BATCH, pollingIntervalSeconds: 0.5 }, async (batch) => {
           const r = await runProjectionBatch(d, [...new Set(batch.map((j) => j.data.pieceId))]);
-          await afterRun(r);
+          await afterRun(r.raised);
           for (const f of r.failed) {
             const message = f.error instanceof Error ? f.error.message : String(f.error);
             for (const job of batch.filter((j) => j.data.pieceId === f.pieceId)) await boss.fail(QUEUES.projection, job.id, { message });
@@ -82,7 +83,7 @@ export async function createJobs(d: Deps, opts: { schedule: boolean }): Promise<
         // A piece the engine refuses is recorded in projection_failure; its batch still completes.
         const nightly = { id: '' };
         nightly.id = await boss.work<{ pieceIds: string[] }>(QUEUES.nightlyBatch, { batchSize: 1, pollingIntervalSeconds: 0.5 }, async ([job]) => {
-          await afterRun(await runProjectionBatch(d, job!.data.pieceIds, new Date(), { bays: 'changed' }));
+          await afterRun((await runProjectionBatch(d, job!.data.pieceIds, new Date(), { bays: 'changed' })).raised);
           if (nightly.id) boss.notifyWorker(nightly.id);
         });
       }
@@ -91,7 +92,7 @@ export async function createJobs(d: Deps, opts: { schedule: boolean }): Promise<
         d.log.info({ pieces: n }, 'nightly projection queued');
         // Every bay once a night, whatever changed its members (a piece shipped, moved, re-planned); the
         // projection batches check only the bays of projections that changed.
-        await afterRun({ projected: 0, raised: await checkAllBays(d), failed: [] });
+        await afterRun(await checkAllBays(d));
       });
       await boss.work<{ plantId: string }>(QUEUES.digest, { pollingIntervalSeconds: 2 }, async (batch) => {
         for (const job of batch) await sendDigest(d, job.data.plantId);
