@@ -7,7 +7,8 @@ import type { Mailer } from './mail/mailer';
 /** The background work the API asks for; kept in PostgreSQL by pg-boss. */
 export interface Jobs {
   projectPiece(pieceId: string, delaySeconds?: number): Promise<void>;
-  projectAll(plantId?: string): Promise<number>;
+  /** Queues every active piece (of a plant), projected as of `asOf` (now by default). */
+  projectAll(plantId?: string, asOf?: Date): Promise<number>;
   alertDigest(plantId: string): Promise<void>;
 }
 

@@ -24,30 +24,37 @@ async function main(): Promise<void> {
   const ids = await activePieceIds(deps);
   console.log(`dataset: ${pieces.toLocaleString('en-US')} pieces, ${ids.length.toLocaleString('en-US')} not shipped (the nightly run covers those)`);
 
-  // The engine alone: inputs loaded first (not timed), then every projection in one loop.
-  const now = new Date();
-  const inputs: ProjectionInput[] = [];
-  for (let i = 0; i < ids.length; i += 500) for (const p of await loadPiecesForProjection(ds, ids.slice(i, i + 500), now)) inputs.push(p.input);
-  const engineAlone = (): number => {
+  // The engine alone on the night's inputs: loaded first (not timed), then every projection in one loop.
+  const engineAlone = async (asOf: Date): Promise<{ seconds: number; pieces: number }> => {
+    const inputs: ProjectionInput[] = [];
+    for (let i = 0; i < ids.length; i += 500) for (const p of await loadPiecesForProjection(ds, ids.slice(i, i + 500), asOf)) inputs.push(p.input);
     const e0 = process.hrtime.bigint();
     for (const input of inputs) projectPiece(input);
-    return Number(process.hrtime.bigint() - e0) / 1e9;
+    return { seconds: Number(process.hrtime.bigint() - e0) / 1e9, pieces: inputs.length };
   };
 
-  // The nightly run through the queue, as the server runs it: the first night after the dataset is
-  // loaded (every stored projection and flag replaced), then further nights (yesterday's results there),
-  // each beside the engine alone measured just before it (the machine's speed drifts).
+  // The nightly run through the queue, as the server runs it, on consecutive nights a day apart: the
+  // first after the dataset is loaded (every stored projection and flag replaced), then nights with
+  // yesterday's results stored, as the plant's calendar moves on. Each beside the engine alone measured
+  // just before it (the machine's speed drifts).
   const fresh = await createJobs(deps, { schedule: false });
   await fresh.startWorkers();
-  const night = async (): Promise<{ engineS: number; seconds: number; stored: number }> => {
-    const engineS = engineAlone();
+  const DAY = 86_400_000;
+  const firstNight = Date.now();
+  let nightNo = 0;
+  const night = async (): Promise<{ engineS: number; pieces: number; seconds: number; rewritten: number }> => {
+    const asOf = new Date(firstNight + DAY * nightNo++);
+    const engine = await engineAlone(asOf);
+    const [{ before }] = await ds.query(`SELECT count(*)::int AS before FROM projection`);
+    const hashes = new Map<string, string>((await ds.query(`SELECT piece_id, result_hash FROM projection`)).map((r: { piece_id: string; result_hash: string | null }) => [r.piece_id, r.result_hash ?? '']));
     const q0 = Date.now();
-    await fresh.boss.send(QUEUES.nightly, {});
-    await sleep(1000);
-    while ((await fresh.boss.getQueueSize(QUEUES.nightly, { before: 'completed' })) > 0 || (await fresh.boss.getQueueSize(QUEUES.nightlyBatch, { before: 'completed' })) > 0) await sleep(250);
+    await fresh.boss.send(QUEUES.nightly, { asOf: asOf.toISOString() });
+    await sleep(500);
+    while ((await fresh.boss.getQueueSize(QUEUES.nightly, { before: 'completed' })) > 0 || (await fresh.boss.getQueueSize(QUEUES.nightlyBatch, { before: 'completed' })) > 0) await sleep(100);
     const seconds = (Date.now() - q0) / 1000;
-    const [{ n }] = await ds.query(`SELECT count(*)::int AS n FROM projection WHERE computed_at >= $1`, [new Date(q0)]);
-    return { engineS, seconds, stored: n };
+    const after: Array<{ piece_id: string; result_hash: string; computed_at: Date }> = await ds.query(`SELECT piece_id, result_hash, computed_at FROM projection`);
+    if (after.length !== before || after.filter((r) => +r.computed_at === +asOf).length !== ids.length) throw new Error(`night ${nightNo}: not every active piece was projected as of ${asOf.toISOString()}`);
+    return { engineS: engine.seconds, pieces: engine.pieces, seconds, rewritten: after.filter((r) => hashes.get(r.piece_id) !== r.result_hash).length };
   };
   const first = await night();
   const next = [];
@@ -56,11 +63,11 @@ async function main(): Promise<void> {
   await ds.destroy();
 
   const engines = [first, ...next].map((x) => x.engineS);
-  console.log(`engine alone, ${inputs.length} pieces in one process      ${median(engines).toFixed(1)} s [${spread(engines, 1)}]   (${Math.round(inputs.length / median(engines))} pieces/s)`);
-  console.log(`first night (every result new)     ${first.seconds.toFixed(1).padStart(6)} s   (${Math.round(first.stored / first.seconds)} pieces/s; ${first.stored} projections stored)   ratio ${(first.seconds / first.engineS).toFixed(1)}× the engine alone`);
+  console.log(`engine alone, ${first.pieces} pieces in one process      ${median(engines).toFixed(1)} s [${spread(engines, 1)}]   (${Math.round(first.pieces / median(engines))} pieces/s)`);
+  console.log(`first night (every result new)     ${first.seconds.toFixed(1).padStart(6)} s   (${Math.round(first.pieces / first.seconds)} pieces/s; ${first.rewritten} results rewritten)   ratio ${(first.seconds / first.engineS).toFixed(1)}× the engine alone`);
   const secs = next.map((x) => x.seconds);
   const ratios = next.map((x) => x.seconds / x.engineS);
-  console.log(`next nights (yesterday stored)     ${median(secs).toFixed(1).padStart(6)} s [${spread(secs, 1)}]   (${next.map((x) => x.stored).join(', ')} projections stored)   ratio ${median(ratios).toFixed(1)}× [${spread(ratios, 1)}] the engine alone`);
+  console.log(`next nights, a day apart           ${median(secs).toFixed(1).padStart(6)} s [${spread(secs, 1)}]   (results rewritten: ${next.map((x) => x.rewritten).join(', ')}; the others marked as computed)   ratio ${median(ratios).toFixed(1)}× [${spread(ratios, 1)}] the engine alone`);
   console.log(`target ≤ 2× the engine alone: ${median(ratios) <= 2 ? 'met' : 'NOT met'} on a typical night, ${first.seconds <= 2 * first.engineS ? 'met' : 'NOT met'} on the first`);
 }
 

@@ -15,7 +15,10 @@ import { compactReviewCounts } from '../review/review.repository';
  * being read or written by PostgreSQL.
  */
 const PROJECTION_BATCH = 100;
-const PROJECTION_WORKERS = 2;
+const PROJECTION_WORKERS = 3;
+
+/** A batch of the nightly run: its pieces, and the moment they are projected as of (ISO; absent in jobs queued before it existed). */
+interface BatchJob { pieceIds: string[]; asOf?: string }
 
 export const QUEUES = { projection: 'projection', nightly: 'projection-nightly', nightlyBatch: 'projection-nightly-batch', digest: 'alert-digest' } as const;
 
@@ -42,16 +45,18 @@ export async function createJobs(d: Deps, opts: { schedule: boolean }): Promise<
   await boss.createQueue(QUEUES.digest, { name: QUEUES.digest, policy: 'stately', retryLimit: 40, retryDelay: 15, retryBackoff: true });
 
   let started = false;
+  const batchWorkers: string[] = [];
   const jobs: JobRunner = {
     boss,
     async projectPiece(pieceId, delaySeconds = d.cfg.PROJECTION_DELAY_SECONDS) {
       await boss.send(QUEUES.projection, { pieceId }, { singletonKey: pieceId, startAfter: delaySeconds });
     },
-    async projectAll(plantId) {
+    async projectAll(plantId, asOf = new Date()) {
       const ids = await activePieceIds(d, plantId);
-      const batches = [];
-      for (let i = 0; i < ids.length; i += PROJECTION_BATCH) batches.push({ name: QUEUES.nightlyBatch, data: { pieceIds: ids.slice(i, i + PROJECTION_BATCH) } });
+      const batches: Array<{ name: string; data: BatchJob }> = [];
+      for (let i = 0; i < ids.length; i += PROJECTION_BATCH) batches.push({ name: QUEUES.nightlyBatch, data: { pieceIds: ids.slice(i, i + PROJECTION_BATCH), asOf: asOf.toISOString() } });
       if (batches.length) await boss.insert(batches);
+      for (const id of batchWorkers) boss.notifyWorker(id); // idle workers start now, not at their next poll
       return ids.length;
     },
     async alertDigest(plantId) {
@@ -81,14 +86,18 @@ export async function createJobs(d: Deps, opts: { schedule: boolean }): Promise<
           if (batch.length === PROJECTION_BATCH && worker.id) boss.notifyWorker(worker.id);
         });
         // A piece the engine refuses is recorded in projection_failure; its batch still completes.
+        // A batch is projected as of the night it belongs to, also when it runs late or is retried.
         const nightly = { id: '' };
-        nightly.id = await boss.work<{ pieceIds: string[] }>(QUEUES.nightlyBatch, { batchSize: 1, pollingIntervalSeconds: 0.5 }, async ([job]) => {
-          await afterRun((await runProjectionBatch(d, job!.data.pieceIds, new Date(), { bays: 'changed' })).raised);
+        nightly.id = await boss.work<BatchJob>(QUEUES.nightlyBatch, { batchSize: 1, pollingIntervalSeconds: 0.5 }, async ([job]) => {
+          const asOf = job!.data.asOf ? new Date(job!.data.asOf) : new Date();
+          await afterRun((await runProjectionBatch(d, job!.data.pieceIds, asOf, { bays: 'changed' })).raised);
           if (nightly.id) boss.notifyWorker(nightly.id);
         });
+        batchWorkers.push(nightly.id);
       }
-      await boss.work(QUEUES.nightly, { pollingIntervalSeconds: 5 }, async () => {
-        const n = await jobs.projectAll();
+      // The scheduled run is as of the moment it was queued; a run queued by hand may name its night.
+      await boss.work<{ asOf?: string }>(QUEUES.nightly, { pollingIntervalSeconds: 1, includeMetadata: true }, async ([job]) => {
+        const n = await jobs.projectAll(undefined, job?.data?.asOf ? new Date(job.data.asOf) : job?.createdOn);
         d.log.info({ pieces: n }, 'nightly projection queued');
         // Every bay once a night, whatever changed its members (a piece shipped, moved, re-planned); the
         // projection batches check only the bays of projections that changed.

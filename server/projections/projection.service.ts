@@ -1,10 +1,10 @@
-import { createHash } from 'node:crypto';
 import { bayMismatches, FLAG_KINDS, projectPiece } from '#shared/projection/project';
 import type { Deps } from '../deps';
-import { loadPiecesForProjection, type Projected, projectionRow, saveProjections, syncFlags, touchProjections, type WantedFlags } from './projection.repository';
+import { syncFlags, type WantedFlags } from './flag-sync';
+import { loadPiecesForProjection, type Projected, saveProjections, touchProjections } from './projection.repository';
+import { type StoredResult, storedResult } from './stored-result';
 
 const PIECE_KINDS = FLAG_KINDS.filter((k) => k !== 'neighbour-mismatch');
-const sha256 = (s: string): string => createHash('sha256').update(s).digest('hex');
 /** Pieces per call when everything is recomputed in this process. */
 const RECOMPUTE_BATCH = 200;
 
@@ -22,18 +22,20 @@ export async function runProjectionBatch(d: Deps, ids: string[], now = new Date(
   const pieces = await loadPiecesForProjection(d.ds, ids, now);
   const projected: Projected[] = [];
   // A result equal to the stored one (most pieces on most nights) is only marked as computed now.
-  const changed: Array<{ row: Record<string, unknown>; inputsHash: string; resultHash: string; item: Projected }> = [];
+  const changed: Array<{ stored: StoredResult; inputsHash: string }> = [];
   const unchanged: Array<{ pieceId: string; inputsHash: string }> = [];
+  // Pieces whose bay check may come out differently: projected at erection differently, or new.
+  const bayMoved: Projected[] = [];
   const failed: BatchResult['failed'] = [];
   for (const piece of pieces) {
     if (piece.status === 'shipped') continue;
     try {
-      const item: Projected = { piece, result: projectPiece(piece.input), inputsHash: sha256(JSON.stringify(piece.input)) };
-      const row = projectionRow(item);
-      const resultHash = sha256(JSON.stringify(row));
+      const item: Projected = { piece, result: projectPiece(piece.input), inputsHash: piece.inputsHash };
+      const stored = storedResult(piece.id, piece.plantId, item.result);
       projected.push(item);
-      if (resultHash === piece.storedResultHash) unchanged.push({ pieceId: piece.id, inputsHash: item.inputsHash });
-      else changed.push({ row, inputsHash: item.inputsHash, resultHash, item });
+      if (stored.hash === piece.stored?.resultHash) unchanged.push({ pieceId: piece.id, inputsHash: item.inputsHash });
+      else changed.push({ stored, inputsHash: item.inputsHash });
+      if (!piece.stored || !sameAt4(piece.stored.erectionMm, stored.columns.erection_mm as number | null) || !sameAt4(piece.stored.differentialMm, item.result.differentialMm)) bayMoved.push(item);
     } catch (error) {
       failed.push({ pieceId: piece.id, error });
     }
@@ -58,12 +60,16 @@ export async function runProjectionBatch(d: Deps, ids: string[], now = new Date(
     );
   }
   // After an edit or a reading the bays of all the pieces are checked (a piece may have moved). The
-  // nightly run checks only bays whose projections changed, and sweeps every bay once besides.
+  // nightly run checks only the bays of pieces whose projection at erection (or tolerance) changed,
+  // the only stored values the check reads, and sweeps every bay once besides.
   const bays = new Map<string, Bay>();
-  for (const { piece } of opts.bays === 'all' ? projected : changed.map((c) => c.item)) if (piece.bay) bays.set(`${piece.plantId}|${piece.jobId}|${piece.bay}`, { plantId: piece.plantId, jobId: piece.jobId, bay: piece.bay, unit: piece.input.unit });
+  for (const { piece } of opts.bays === 'all' ? projected : bayMoved) if (piece.bay) bays.set(`${piece.plantId}|${piece.jobId}|${piece.bay}`, { plantId: piece.plantId, jobId: piece.jobId, bay: piece.bay, unit: piece.input.unit });
   const bayRaised = await checkBays(d, [...bays.values()]);
   return { projected: projected.length, raised: [...raised, ...bayRaised], failed };
 }
+
+/** Equal as stored (numeric with 4 decimals); a difference in doubt counts as a change (one more bay check). */
+const sameAt4 = (a: number | null, b: number | null): boolean => (a === null || b === null ? a === b : Math.round(a * 1e4) === Math.round(b * 1e4));
 
 /** Recomputes one piece (a reading, an edit). Throws when the engine refuses it, so the queue retries. */
 export async function runProjection(d: Deps, pieceId: string, now = new Date()): Promise<RunResult> {

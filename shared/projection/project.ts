@@ -85,11 +85,18 @@ const DAY = 86_400_000;
 const ageOf = (castDate: string, iso: string): number => (Date.parse(iso) - Date.parse(`${castDate}T00:00:00Z`)) / DAY;
 const dateAge = (castDate: string, date: string): number => (Date.parse(`${date}T12:00:00Z`) - Date.parse(`${castDate}T00:00:00Z`)) / DAY;
 
-/** Ages for the stored curve: daily for two weeks after release, then weekly. */
+/**
+ * Ages for the stored curve: daily for two weeks after release, then weekly up to the first week at or
+ * past `lastAge`. The curve ends on that fixed grid rather than at `lastAge` itself, which moves with
+ * today: a piece's stored result then changes about once a week instead of every night.
+ */
 function curveAges(releaseAge: number, lastAge: number): number[] {
   const ages: number[] = [];
   for (let a = releaseAge; a <= Math.min(lastAge, releaseAge + 14); a += 1) ages.push(a);
-  for (let a = releaseAge + 21; a <= lastAge; a += 7) ages.push(a);
+  if (lastAge > releaseAge + 14) for (let a = releaseAge + 21; ; a += 7) {
+    ages.push(a);
+    if (a >= lastAge) break;
+  }
   if (ages.at(-1)! < lastAge) ages.push(lastAge);
   return ages;
 }
@@ -178,7 +185,7 @@ export function projectPiece(p: ProjectionInput): ProjectionResult {
     });
   }
   const due = readingDue({ castDate: p.castDate, releaseDate: p.releaseDate, lastReadingDate: readings.at(-1)?.takenAt.slice(0, 10) ?? null, today: p.today, ages: p.readingAges });
-  if (due.overdue) flags.push({ kind: 'reading-overdue', severity: 1, reason: `The reading due on ${due.dueSince} has waited ${due.daysWaiting} days.` });
+  if (due.overdue) flags.push({ kind: 'reading-overdue', severity: 1, reason: `The reading due on ${due.dueSince} has not been taken.` });
   const newest = withAge.at(-1);
   if (newest?.distorted) {
     flags.push({ kind: 'reading-in-doubt', severity: 1, reason: `The latest reading (${newest.takenAt.slice(0, 10)}) was taken in afternoon sun; measure again early in the day or in shade.` });

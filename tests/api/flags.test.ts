@@ -165,6 +165,62 @@ describe('flags from the projection job', () => {
   });
 });
 
+describe('night after night', () => {
+  const night = (n: number): Date => new Date(Date.now() + n * DAY);
+
+  it('when a piece stays in the yard past its ship date, then its stored curve reaches 30 days past today and changes once a week, not every night', async () => {
+    const p = await pieceWith(40, [{ age: 7, inches: (c) => c.camber }, { age: 28, inches: (c) => c.camber }], { shipInDays: -5 });
+    const [{ cast_date: cast }] = await t.ds.query(`SELECT cast_date::text FROM piece WHERE id = $1`, [p.id]);
+    const seen: string[] = [];
+    for (let n = 0; n < 8; n++) {
+      await runProjection(t.deps, p.id, night(n));
+      const [pr] = await t.ds.query(`SELECT result_hash, curve FROM projection WHERE piece_id = $1`, [p.id]);
+      const todayAge = (Date.parse(`${isoDay(night(n))}T12:00:00Z`) - Date.parse(`${cast}T00:00:00Z`)) / DAY; // ages of dates are at noon
+      expect(pr.curve.at(-1).ageDays).toBeGreaterThanOrEqual(todayAge + 30);
+      expect(pr.curve.at(-1).ageDays).toBeLessThan(todayAge + 30 + 7);
+      seen.push(pr.result_hash);
+    }
+    const changes = seen.slice(1).filter((h, i) => h !== seen[i]).length;
+    expect(changes).toBe(1); // seven nights, one weekly point passed
+  });
+
+  it('when a reading stays overdue, then its flag is not rewritten the next night', async () => {
+    const p = await pieceWith(20, [{ age: 1, inches: (c) => c.camber }]);
+    await runProjection(t.deps, p.id, night(0));
+    const flag = async (): Promise<{ id: string; reason: string; xmin: string }> =>
+      (await t.ds.query(`SELECT id, reason, xmin::text FROM piece_flag WHERE piece_id = $1 AND kind = 'reading-overdue' AND cleared_at IS NULL`, [p.id]))[0];
+    const first = await flag();
+    expect(first.reason).toMatch(/^The reading due on \d{4}-\d\d-\d\d has not been taken\.$/);
+    await runProjection(t.deps, p.id, night(1));
+    expect(await flag()).toEqual(first);
+  });
+
+  it('when only the curve moves on, then the nightly batch leaves the bay to the nightly sweep; a changed projection at erection checks the bay at once', async () => {
+    const job = (await buildJob(t.ds, plant.plantId)).id;
+    const normal = (c: ReturnType<typeof curve.at>): number => c.camber;
+    const o = { jobId: job, bay: 'Bay 4', shipInDays: -5 };
+    const a = await pieceWith(40, [{ age: 7, inches: normal }, { age: 14, inches: normal }], { ...o, position: 1 });
+    const b = await pieceWith(40, [{ age: 7, inches: (c) => c.camber + 0.7 }, { age: 14, inches: (c) => c.camber + 0.9 }], { ...o, position: 2 });
+    const c = await pieceWith(40, [{ age: 7, inches: normal }, { age: 14, inches: normal }], { ...o, position: 3 });
+    await t.ds.query(`UPDATE piece SET bay = NULL, bay_position = NULL WHERE id = $1`, [b.id]);
+    await runProjectionBatch(t.deps, [a.id, b.id, c.id], night(0));
+    // Back in the bay without a run of its own; a week on every curve has changed, no projection at erection has.
+    await t.ds.query(`UPDATE piece SET bay = 'Bay 4', bay_position = 2 WHERE id = $1`, [b.id]);
+    const hashes = async (): Promise<string[]> => (await t.ds.query(`SELECT result_hash FROM projection WHERE piece_id = ANY($1::uuid[]) ORDER BY piece_id`, [[a.id, b.id, c.id]])).map((r: { result_hash: string }) => r.result_hash);
+    const before = await hashes();
+    await runProjectionBatch(t.deps, [a.id, b.id, c.id], night(7), { bays: 'changed' });
+    expect((await hashes()).filter((h, i) => h !== before[i])).toHaveLength(3);
+    expect(await flagsOf(b.id)).not.toContain('neighbour-mismatch');
+    await checkAllBays(t.deps, plant.plantId);
+    expect(await flagsOf(b.id)).toContain('neighbour-mismatch');
+    // Its erection moved a week later: its projection at erection changes, and its bay is checked in the batch.
+    await t.ds.query(`UPDATE piece_flag SET cleared_at = now() WHERE piece_id = $1 AND kind = 'neighbour-mismatch' AND cleared_at IS NULL`, [b.id]);
+    await t.ds.query(`UPDATE piece SET erection_date = erection_date + 7 WHERE id = $1`, [b.id]);
+    await runProjectionBatch(t.deps, [a.id, b.id, c.id], night(8), { bays: 'changed' });
+    expect(await flagsOf(b.id)).toContain('neighbour-mismatch');
+  });
+});
+
 describe('GET /api/review and decisions', () => {
   it('when a flagged piece gets a hold with a comment, then it leaves the "needs a decision" view but stays among all flagged', async () => {
     const p = await pieceWith(30, [{ age: 28, inches: (c) => c.toleranceHigh + 0.3 }], { shipInDays: 3 });
