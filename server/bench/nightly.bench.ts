@@ -54,7 +54,7 @@ async function main(): Promise<void> {
     const seconds = (Date.now() - q0) / 1000;
     const after: Array<{ piece_id: string; result_hash: string; computed_at: Date }> = await ds.query(`SELECT piece_id, result_hash, computed_at FROM projection`);
     if (after.length !== before || after.filter((r) => +r.computed_at === +asOf).length !== ids.length) throw new Error(`night ${nightNo}: not every active piece was projected as of ${asOf.toISOString()}`);
-    return { engineS: engine.seconds, pieces: engine.pieces, seconds, rewritten: after.filter((r) => hashes.get(r.piece_id) !== r.result_hash).length };
+    return { engineS: engine.seconds, pieces: engine.pieces, seconds, rewritten: after.filter((r) => hashes.get(r.piece_id) !== (r.result_hash ?? '')).length };
   };
   const first = await night();
   const next = [];

@@ -14,7 +14,7 @@ import { compactReviewCounts } from '../review/review.repository';
  * per batch), and how many workers fetch side by side: one batch is in the engine while another is
  * being read or written by PostgreSQL.
  */
-const PROJECTION_BATCH = 100;
+const PROJECTION_BATCH = 250;
 const PROJECTION_WORKERS = 3;
 
 /** A batch of the nightly run: its pieces, and the moment they are projected as of (ISO; absent in jobs queued before it existed). */

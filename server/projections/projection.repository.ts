@@ -6,6 +6,8 @@ import type { ProjectionInput, ProjectionResult } from '#shared/projection/proje
 import { dateInZone } from '#shared/yard/schedule';
 import { isoSql, numSql } from '../db/json-sql';
 import { familiesForProjection, type FamilyForProjection } from '../settings/settings.repository';
+import type { Statement } from '../db/statement';
+import type { ActiveFlag } from './flag-sync';
 import { curvePoints, type StoredResult } from './stored-result';
 
 type Db = DataSource | EntityManager;
@@ -18,6 +20,10 @@ export interface PieceForProjection {
   bay: string | null;
   jobId: string;
   input: ProjectionInput;
+  /** Its active flags when loaded (what a sync compares the wanted ones with). */
+  activeFlags: ActiveFlag[];
+  /** Whether its last projection run failed (projection_failure). */
+  hadFailure: boolean;
   /** Fingerprint of the engine's input (stored with the result: which inputs it was computed from). */
   inputsHash: string;
   /** The projection stored now, if any: its result hash and what the bay check reads of it. */
@@ -34,7 +40,10 @@ export async function loadPiecesForProjection(db: Db, ids: string[], now: Date):
   const rows: PieceRow[] = await db.query(
     `SELECT p.id, p.plant_id, p.mark, p.status, p.bay, p.job_id, p.cast_date::text AS cast_date, p.release_date::text AS release_date,
             p.ship_date::text AS ship_date, p.erection_date::text AS erection_date, p.design_id, d.product_type, pl.time_zone, pl.unit_system,
-            pr.piece_id IS NOT NULL AS has_projection, pr.result_hash, pr.erection_mm::float8 AS stored_erection_mm, pr.differential_mm::float8 AS stored_differential_mm
+            pr.piece_id IS NOT NULL AS has_projection, pr.result_hash, pr.erection_mm::float8 AS stored_erection_mm, pr.differential_mm::float8 AS stored_differential_mm,
+            (SELECT json_agg(json_build_object('id', f.id, 'kind', f.kind, 'severity', f.severity, 'reason', f.reason))
+               FROM piece_flag f WHERE f.piece_id = p.id AND f.cleared_at IS NULL) AS flags,
+            EXISTS (SELECT 1 FROM projection_failure x WHERE x.piece_id = p.id) AS had_failure
        FROM piece p JOIN member_design d ON d.id = p.design_id JOIN plant pl ON pl.id = p.plant_id LEFT JOIN projection pr ON pr.piece_id = p.id
       WHERE p.id = ANY($1::uuid[])`,
     [ids],
@@ -79,6 +88,7 @@ interface PieceRow {
   id: string; plant_id: string; mark: string; status: string; bay: string | null; job_id: string; cast_date: string; release_date: string;
   ship_date: string | null; erection_date: string | null; design_id: string; product_type: string; time_zone: string; unit_system: string;
   has_projection: boolean; result_hash: string | null; stored_erection_mm: number | null; stored_differential_mm: number | null;
+  flags: Array<Omit<ActiveFlag, 'piece_id'>> | null; had_failure: boolean;
 }
 
 /** A reading as the load query writes it: id, taken at (ISO), value (mm), support, sky, hour on the plant's clock. */
@@ -121,6 +131,8 @@ function toPieceForProjection(r: PieceRow, readingsText: string, spec: { spec: D
     status: r.status,
     bay: r.bay,
     jobId: r.job_id,
+    activeFlags: (r.flags ?? []).map((f) => ({ ...f, piece_id: r.id })),
+    hadFailure: r.had_failure,
     stored: r.has_projection ? { resultHash: r.result_hash, erectionMm: r.stored_erection_mm, differentialMm: Number(r.stored_differential_mm) } : null,
     input: { spec: spec.spec, ...rest, readings },
     // Of everything the engine is given, from the texts it is built from: the spec's JSON once per design
@@ -132,18 +144,22 @@ function toPieceForProjection(r: PieceRow, readingsText: string, spec: { spec: D
 
 export interface Projected { piece: PieceForProjection; result: ProjectionResult; inputsHash: string }
 
-/** Replaces the stored projections of some pieces in one statement (upsert: a repeated run leaves one row each). */
-export async function saveProjections(db: Db, items: Array<{ stored: StoredResult; inputsHash: string }>, now: Date): Promise<void> {
-  if (!items.length) return;
-  const rows = items.map(({ stored, inputsHash }) => ({ ...stored.columns, curve: curvePoints(stored.curve), inputs_hash: inputsHash, result_hash: stored.hash }));
-  await db.query(
-    `INSERT INTO projection (piece_id, plant_id, computed_at, inputs_hash, result_hash, method, readings_used, growth_factor, growth_factor_sd, elastic_factor,
+/**
+ * Adds to a statement the storing of a batch's results: changed ones replaced whole (upsert: a repeated
+ * run leaves one row each), unchanged ones only marked as computed now from these inputs (the curve is
+ * not rewritten), and the pieces' earlier failures forgotten.
+ */
+export function addProjectionWrites(st: Statement, b: { changed: Array<{ stored: StoredResult; inputsHash: string }>; unchanged: Array<{ pieceId: string; inputsHash: string }>; unfailed: string[] }, now: Date): void {
+  const at = b.changed.length || b.unchanged.length ? st.param(now) : '';
+  if (b.changed.length) {
+    const rows = b.changed.map(({ stored, inputsHash }) => ({ ...stored.columns, curve: curvePoints(stored.curve), inputs_hash: inputsHash, result_hash: stored.hash }));
+    st.with(`INSERT INTO projection (piece_id, plant_id, computed_at, inputs_hash, result_hash, method, readings_used, growth_factor, growth_factor_sd, elastic_factor,
                              latest_mm, latest_expected_mm, latest_low_mm, latest_high_mm, ship_mm, ship_low_mm, ship_high_mm,
                              erection_mm, erection_low_mm, erection_high_mm, tolerance_mm, differential_mm, measured_ratio, curve, note)
-     SELECT x.piece_id, x.plant_id, $2, x.inputs_hash, x.result_hash, x.method, x.readings_used, x.growth_factor, x.growth_factor_sd, x.elastic_factor,
+     SELECT x.piece_id, x.plant_id, ${at}, x.inputs_hash, x.result_hash, x.method, x.readings_used, x.growth_factor, x.growth_factor_sd, x.elastic_factor,
             x.latest_mm, x.latest_expected_mm, x.latest_low_mm, x.latest_high_mm, x.ship_mm, x.ship_low_mm, x.ship_high_mm,
             x.erection_mm, x.erection_low_mm, x.erection_high_mm, x.tolerance_mm, x.differential_mm, x.measured_ratio, x.curve, x.note
-       FROM jsonb_to_recordset($1::jsonb) AS x(piece_id uuid, plant_id uuid, inputs_hash text, result_hash text, method text, readings_used int, growth_factor numeric,
+       FROM jsonb_to_recordset(${st.param(JSON.stringify(rows))}::jsonb) AS x(piece_id uuid, plant_id uuid, inputs_hash text, result_hash text, method text, readings_used int, growth_factor numeric,
             growth_factor_sd numeric, elastic_factor numeric, latest_mm numeric, latest_expected_mm numeric, latest_low_mm numeric, latest_high_mm numeric,
             ship_mm numeric, ship_low_mm numeric, ship_high_mm numeric, erection_mm numeric, erection_low_mm numeric, erection_high_mm numeric,
             tolerance_mm numeric, differential_mm numeric, measured_ratio numeric, curve jsonb, note text)
@@ -153,17 +169,13 @@ export async function saveProjections(db: Db, items: Array<{ stored: StoredResul
        latest_low_mm = EXCLUDED.latest_low_mm, latest_high_mm = EXCLUDED.latest_high_mm, ship_mm = EXCLUDED.ship_mm,
        ship_low_mm = EXCLUDED.ship_low_mm, ship_high_mm = EXCLUDED.ship_high_mm, erection_mm = EXCLUDED.erection_mm,
        erection_low_mm = EXCLUDED.erection_low_mm, erection_high_mm = EXCLUDED.erection_high_mm, tolerance_mm = EXCLUDED.tolerance_mm,
-       differential_mm = EXCLUDED.differential_mm, measured_ratio = EXCLUDED.measured_ratio, curve = EXCLUDED.curve, note = EXCLUDED.note`,
-    [JSON.stringify(rows), now],
-  );
-}
-
-/** Marks stored projections whose result did not change as computed now from these inputs (the curve is not rewritten). */
-export async function touchProjections(db: Db, items: Array<{ pieceId: string; inputsHash: string }>, now: Date): Promise<void> {
-  if (!items.length) return;
-  await db.query(
-    `UPDATE projection p SET computed_at = $2, inputs_hash = x.inputs_hash
-       FROM jsonb_to_recordset($1::jsonb) AS x(piece_id uuid, inputs_hash text) WHERE p.piece_id = x.piece_id`,
-    [JSON.stringify(items.map((i) => ({ piece_id: i.pieceId, inputs_hash: i.inputsHash }))), now],
-  );
+       differential_mm = EXCLUDED.differential_mm, measured_ratio = EXCLUDED.measured_ratio, curve = EXCLUDED.curve, note = EXCLUDED.note
+     RETURNING piece_id`);
+  }
+  if (b.unchanged.length) {
+    st.with(`UPDATE projection p SET computed_at = ${at}, inputs_hash = x.inputs_hash
+               FROM jsonb_to_recordset(${st.param(JSON.stringify(b.unchanged.map((i) => ({ piece_id: i.pieceId, inputs_hash: i.inputsHash }))))}::jsonb) AS x(piece_id uuid, inputs_hash text)
+              WHERE p.piece_id = x.piece_id RETURNING p.piece_id`);
+  }
+  if (b.unfailed.length) st.with(`DELETE FROM projection_failure WHERE piece_id = ANY(${st.param(b.unfailed)}::uuid[]) RETURNING piece_id`);
 }

@@ -1,7 +1,8 @@
 import { bayMismatches, FLAG_KINDS, projectPiece } from '#shared/projection/project';
 import type { Deps } from '../deps';
-import { syncFlags, type WantedFlags } from './flag-sync';
-import { loadPiecesForProjection, type Projected, saveProjections, touchProjections } from './projection.repository';
+import { Statement } from '../db/statement';
+import { addFlagWrites, planFlags, raisedFrom, syncFlags, type WantedFlags } from './flag-sync';
+import { addProjectionWrites, loadPiecesForProjection, type Projected } from './projection.repository';
 import { type StoredResult, storedResult } from './stored-result';
 
 const PIECE_KINDS = FLAG_KINDS.filter((k) => k !== 'neighbour-mismatch');
@@ -40,16 +41,16 @@ export async function runProjectionBatch(d: Deps, ids: string[], now = new Date(
       failed.push({ pieceId: piece.id, error });
     }
   }
+  // One statement stores the results, forgets the pieces' earlier failures and syncs their flags with
+  // those read when they were loaded. A shipped piece keeps no flag; a piece in no bay has no neighbours
+  // to mismatch (it may have just left one); the neighbour flag of a piece in a bay is the bay check's
+  // to decide.
   const shipped: WantedFlags[] = pieces.filter((p) => p.status === 'shipped').map((p) => ({ plantId: p.plantId, pieceId: p.id, flags: [] }));
-  const raised = await d.ds.transaction(async (tx) => {
-    await saveProjections(tx, changed, now);
-    await touchProjections(tx, unchanged, now);
-    if (projected.length) await tx.query(`DELETE FROM projection_failure WHERE piece_id = ANY($1::uuid[])`, [projected.map((x) => x.piece.id)]);
-    // A shipped piece keeps no flag; a piece in no bay has no neighbours to mismatch (it may have just
-    // left one); the neighbour flag of a piece in a bay is the bay check's to decide.
-    const pieceFlags = projected.map((x) => ({ plantId: x.piece.plantId, pieceId: x.piece.id, flags: x.result.flags, kinds: x.piece.bay ? PIECE_KINDS : FLAG_KINDS }));
-    return syncFlags(tx, [...shipped, ...pieceFlags], FLAG_KINDS);
-  });
+  const pieceFlags = projected.map((x) => ({ plantId: x.piece.plantId, pieceId: x.piece.id, flags: x.result.flags, kinds: x.piece.bay ? PIECE_KINDS : FLAG_KINDS }));
+  const st = new Statement();
+  addProjectionWrites(st, { changed, unchanged, unfailed: projected.filter((x) => x.piece.hadFailure).map((x) => x.piece.id) }, now);
+  const plan = planFlags(pieces.flatMap((p) => p.activeFlags), [...shipped, ...pieceFlags], FLAG_KINDS);
+  const raised = raisedFrom(await st.run(d.ds, addFlagWrites(st, plan)));
   if (failed.length) {
     const plantOf = new Map(pieces.map((p) => [p.id, p.plantId]));
     await d.ds.query(
