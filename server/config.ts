@@ -40,6 +40,8 @@ const envSchema = z.object({
   PROJECTION_DELAY_SECONDS: z.coerce.number().int().min(0).default(5),
   /** Seconds after which a projection batch a worker took and never finished (the process died) is run again. */
   PROJECTION_EXPIRE_SECONDS: z.coerce.number().int().min(1).default(300),
+  /** Threads the nightly run's batches are projected in (0: the server's own thread). */
+  PROJECTION_THREADS: z.coerce.number().int().min(0).max(16).default(2),
   /** Seconds between the queue's housekeeping rounds (expired jobs back to the queue, old ones archived). */
   JOB_MAINTENANCE_SECONDS: z.coerce.number().int().min(1).default(120),
 });
