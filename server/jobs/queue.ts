@@ -71,7 +71,7 @@ export async function createJobs(d: Deps, opts: { schedule: boolean }): Promise<
     async startWorkers() {
       if (started) return; // once per runner
       started = true;
-      if (d.cfg.PROJECTION_THREADS > 0) pool = createBatchPool(d.cfg, d.cfg.PROJECTION_THREADS);
+      if (d.cfg.PROJECTION_THREADS > 0) pool = createBatchPool(d.cfg, d.cfg.PROJECTION_THREADS, (err) => d.log.error({ err }, 'projection thread failed; its batches go back to the queue'));
       // pg-boss waits out the polling interval after every fetch; after a full batch the worker is told
       // to fetch again at once, so a nightly run of hundreds of batches is not paced by the interval.
       // Trouble with the database fails the batch and the queue retries it (a re-run stores the same

@@ -17,12 +17,17 @@ export interface BatchPool {
   close(): Promise<void>;
 }
 
-/** The thread registers tsx's loader (the server runs its TypeScript the same way) and loads batch-thread.ts. */
-const BOOT = `import('tsx/esm/api').then((tsx) => { tsx.register(); return import(${JSON.stringify(new URL('./batch-thread.ts', import.meta.url).href)}); });`;
+/**
+ * The thread registers tsx's loader (the server runs its TypeScript the same way) and loads
+ * batch-thread.ts, both found from this file (the tests' module runner may not resolve: the bare name then).
+ */
+const TSX_API = typeof import.meta.resolve === 'function' ? import.meta.resolve('tsx/esm/api') : 'tsx/esm/api';
+const BOOT = `import(${JSON.stringify(TSX_API)})
+  .then((tsx) => { tsx.register(); return import(${JSON.stringify(new URL('./batch-thread.ts', import.meta.url).href)}); });`;
 
 interface Slot { worker: Worker; busy: number; pending: Map<number, { resolve: (r: BatchResult) => void; reject: (e: Error) => void }> }
 
-export function createBatchPool(cfg: Config, size: number): BatchPool {
+export function createBatchPool(cfg: Config, size: number, onThreadError: (err: Error) => void = () => {}): BatchPool {
   let next = 0;
   let closing = false;
   const slots: Slot[] = [];
@@ -40,6 +45,7 @@ export function createBatchPool(cfg: Config, size: number): BatchPool {
     });
     // A thread that dies fails its batches (the queue runs them again) and is replaced.
     const fail = (err: Error): void => {
+      if (!closing) onThreadError(err);
       for (const p of slot.pending.values()) p.reject(err);
       slot.pending.clear();
       slot.busy = 0;
