@@ -27,7 +27,7 @@ async function main(): Promise<void> {
   // The engine alone on the night's inputs: loaded first (not timed), then every projection in one loop.
   const engineAlone = async (asOf: Date): Promise<{ seconds: number; pieces: number }> => {
     const inputs: ProjectionInput[] = [];
-    for (let i = 0; i < ids.length; i += 500) for (const p of await loadPiecesForProjection(ds, ids.slice(i, i + 500), asOf)) inputs.push(p.input);
+    for (let i = 0; i < ids.length; i += 500) for (const p of await loadPiecesForProjection(ds, ids.slice(i, i + 500), asOf)) inputs.push(p.input());
     const e0 = process.hrtime.bigint();
     for (const input of inputs) projectPiece(input);
     return { seconds: Number(process.hrtime.bigint() - e0) / 1e9, pieces: inputs.length };

@@ -19,7 +19,13 @@ export interface PieceForProjection {
   status: string;
   bay: string | null;
   jobId: string;
-  input: ProjectionInput;
+  unit: 'in' | 'mm';
+  /**
+   * The engine's input, made when asked for: made for each piece just before it is projected, the
+   * inputs of a whole batch do not outlive the young generation of the heap (garbage collection was the
+   * largest cost of a batch after the engine, measured).
+   */
+  input(): ProjectionInput;
   /** Its active flags when loaded (what a sync compares the wanted ones with). */
   activeFlags: ActiveFlag[];
   /** Whether its last projection run failed (projection_failure). */
@@ -123,7 +129,7 @@ function toPieceForProjection(r: PieceRow, readingsText: string, spec: { spec: D
     today,
     unit: r.unit_system === 'si' ? ('mm' as const) : ('in' as const),
   };
-  const readings = (JSON.parse(readingsText) as ReadingTuple[]).map(([id, takenAt, valueMm, support, sky, localHour]) => ({ id, takenAt, valueMm, support, sky, localHour }));
+  const readings = (): ProjectionInput['readings'] => (JSON.parse(readingsText) as ReadingTuple[]).map(([id, takenAt, valueMm, support, sky, localHour]) => ({ id, takenAt, valueMm, support, sky, localHour }));
   return {
     id: r.id,
     plantId: r.plant_id,
@@ -134,7 +140,8 @@ function toPieceForProjection(r: PieceRow, readingsText: string, spec: { spec: D
     activeFlags: (r.flags ?? []).map((f) => ({ ...f, piece_id: r.id })),
     hadFailure: r.had_failure,
     stored: r.has_projection ? { resultHash: r.result_hash, erectionMm: r.stored_erection_mm, differentialMm: Number(r.stored_differential_mm) } : null,
-    input: { spec: spec.spec, ...rest, readings },
+    unit: rest.unit,
+    input: () => ({ spec: spec.spec, ...rest, readings: readings() }),
     // Of everything the engine is given, from the texts it is built from: the spec's JSON once per design
     // and family, the readings as PostgreSQL wrote them (the JSON of the whole input, made again for each
     // piece only to be hashed, cost more than a tenth of the engine's time, measured).
@@ -142,7 +149,8 @@ function toPieceForProjection(r: PieceRow, readingsText: string, spec: { spec: D
   };
 }
 
-export interface Projected { piece: PieceForProjection; result: ProjectionResult; inputsHash: string }
+/** A piece projected in a batch: what the batch still needs of it once its result is stored. */
+export interface Projected { piece: PieceForProjection; flags: ProjectionResult['flags'] }
 
 /**
  * Adds to a statement the storing of a batch's results: changed ones replaced whole (upsert: a repeated

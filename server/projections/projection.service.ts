@@ -31,12 +31,14 @@ export async function runProjectionBatch(d: Deps, ids: string[], now = new Date(
   for (const piece of pieces) {
     if (piece.status === 'shipped') continue;
     try {
-      const item: Projected = { piece, result: projectPiece(piece.input), inputsHash: piece.inputsHash };
-      const stored = storedResult(piece.id, piece.plantId, item.result);
+      // Of the result only its stored form and its flags are kept, so the rest dies young.
+      const result = projectPiece(piece.input());
+      const stored = storedResult(piece.id, piece.plantId, result);
+      const item: Projected = { piece, flags: result.flags };
       projected.push(item);
-      if (stored.hash === piece.stored?.resultHash) unchanged.push({ pieceId: piece.id, inputsHash: item.inputsHash });
-      else changed.push({ stored, inputsHash: item.inputsHash });
-      if (!piece.stored || !sameAt4(piece.stored.erectionMm, stored.columns.erection_mm as number | null) || !sameAt4(piece.stored.differentialMm, item.result.differentialMm)) bayMoved.push(item);
+      if (stored.hash === piece.stored?.resultHash) unchanged.push({ pieceId: piece.id, inputsHash: piece.inputsHash });
+      else changed.push({ stored, inputsHash: piece.inputsHash });
+      if (!piece.stored || !sameAt4(piece.stored.erectionMm, stored.columns.erection_mm as number | null) || !sameAt4(piece.stored.differentialMm, result.differentialMm)) bayMoved.push(item);
     } catch (error) {
       failed.push({ pieceId: piece.id, error });
     }
@@ -46,7 +48,7 @@ export async function runProjectionBatch(d: Deps, ids: string[], now = new Date(
   // to mismatch (it may have just left one); the neighbour flag of a piece in a bay is the bay check's
   // to decide.
   const shipped: WantedFlags[] = pieces.filter((p) => p.status === 'shipped').map((p) => ({ plantId: p.plantId, pieceId: p.id, flags: [] }));
-  const pieceFlags = projected.map((x) => ({ plantId: x.piece.plantId, pieceId: x.piece.id, flags: x.result.flags, kinds: x.piece.bay ? PIECE_KINDS : FLAG_KINDS }));
+  const pieceFlags = projected.map((x) => ({ plantId: x.piece.plantId, pieceId: x.piece.id, flags: x.flags, kinds: x.piece.bay ? PIECE_KINDS : FLAG_KINDS }));
   const st = new Statement();
   addProjectionWrites(st, { changed, unchanged, unfailed: projected.filter((x) => x.piece.hadFailure).map((x) => x.piece.id) }, now);
   const plan = planFlags(pieces.flatMap((p) => p.activeFlags), [...shipped, ...pieceFlags], FLAG_KINDS);
@@ -64,7 +66,7 @@ export async function runProjectionBatch(d: Deps, ids: string[], now = new Date(
   // nightly run checks only the bays of pieces whose projection at erection (or tolerance) changed,
   // the only stored values the check reads, and sweeps every bay once besides.
   const bays = new Map<string, Bay>();
-  for (const { piece } of opts.bays === 'all' ? projected : bayMoved) if (piece.bay) bays.set(`${piece.plantId}|${piece.jobId}|${piece.bay}`, { plantId: piece.plantId, jobId: piece.jobId, bay: piece.bay, unit: piece.input.unit });
+  for (const { piece } of opts.bays === 'all' ? projected : bayMoved) if (piece.bay) bays.set(`${piece.plantId}|${piece.jobId}|${piece.bay}`, { plantId: piece.plantId, jobId: piece.jobId, bay: piece.bay, unit: piece.unit });
   const bayRaised = await checkBays(d, [...bays.values()]);
   return { projected: projected.length, raised: [...raised, ...bayRaised], failed };
 }
