@@ -31,6 +31,7 @@ export function createBatchPool(cfg: Config, size: number, onThreadError: (err: 
   let next = 0;
   let closing = false;
   const slots: Slot[] = [];
+  const exited = new WeakSet<Worker>();
   const start = (i: number): void => {
     const worker = new Worker(BOOT, { eval: true, workerData: cfg });
     const slot: Slot = { worker, busy: 0, pending: new Map() };
@@ -55,12 +56,16 @@ export function createBatchPool(cfg: Config, size: number, onThreadError: (err: 
       }
     };
     worker.on('error', fail);
-    worker.on('exit', (code) => fail(new Error(`projection thread exited with code ${code}`)));
+    worker.on('exit', (code) => {
+      exited.add(worker);
+      fail(new Error(`projection thread exited with code ${code}`));
+    });
   };
   for (let i = 0; i < size; i++) start(i);
   return {
     run(pieceIds, asOf, bays) {
       const slot = slots.reduce((a, b) => (b.busy < a.busy ? b : a));
+      if (slot.busy === Number.MAX_SAFE_INTEGER) return Promise.reject(new Error('no projection thread is running (replacements start within a second)'));
       const id = ++next;
       slot.busy++;
       return new Promise<BatchResult>((resolve, reject) => {
@@ -70,7 +75,7 @@ export function createBatchPool(cfg: Config, size: number, onThreadError: (err: 
     },
     async close() {
       closing = true;
-      await Promise.all(slots.map((s) => new Promise<void>((r) => {
+      await Promise.all(slots.filter((s) => !exited.has(s.worker)).map((s) => new Promise<void>((r) => {
         s.worker.once('exit', () => r());
         s.worker.postMessage('close');
       })));
