@@ -1,5 +1,5 @@
 // `npm run bench:nightly`: wall time of the nightly projection over every active piece of the plant-sized
-// dataset, queue included (the nightly job queues the pieces a hundred to a job; the workers load,
+// dataset, queue included (the nightly job queues the pieces 250 to a job; two threads load,
 // project, store and flag each batch), beside the engine alone on the same inputs in one process.
 // Target: ≤ 2× the engine alone. BENCH_PIECES makes a smaller dataset for a quick look.
 import pino from 'pino';

@@ -4,7 +4,7 @@ import type { DataSource, EntityManager } from 'typeorm';
  * One SQL statement built from data-modifying parts: each `with` part runs once, to completion, whether
  * or not the final part reads it (PostgreSQL's rule for data-modifying WITH), and the whole statement is
  * atomic without a transaction of its own. Used where a batch writes several tables: one round trip
- * instead of one per table (each costs about as much of this process's time as a hundred rows of payload,
+ * instead of one per table (each costs this process about a quarter of a millisecond,
  * measured) and no BEGIN and COMMIT. The parts must not write the same row twice.
  */
 export class Statement {

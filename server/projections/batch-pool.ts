@@ -45,8 +45,9 @@ export function createBatchPool(cfg: Config, size: number, onThreadError: (err: 
       else p.resolve({ ...reply.result, failed: reply.result.failed.map((f) => ({ pieceId: f.pieceId, error: new Error(f.message) })) });
     });
     // A thread that dies fails its batches (the queue runs them again) and is replaced.
+    // Called on 'error' and again on 'exit': reported and replaced once.
     const fail = (err: Error): void => {
-      if (!closing) onThreadError(err);
+      if (!closing && slots[i] === slot) onThreadError(err);
       for (const p of slot.pending.values()) p.reject(err);
       slot.pending.clear();
       slot.busy = 0;

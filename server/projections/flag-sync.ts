@@ -28,7 +28,7 @@ export interface FlagPlan {
  * Returns the flags newly raised.
  *
  * The pieces' active flags are read through their index and compared here, and only the differences are
- * written, by flag id. Most syncs change nothing (the nightly run syncs a hundred pieces per batch, night
+ * written, by flag id. Most syncs change nothing (the nightly run syncs 250 pieces per batch, night
  * after night), so most write nothing and fire no trigger; matching the wanted list against the table in
  * SQL made the planner scan every active flag of the plant twice per batch (measured: most of the
  * database's time in a nightly batch of a 50,000-piece plant).

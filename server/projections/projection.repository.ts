@@ -38,8 +38,8 @@ export interface PieceForProjection {
 
 /**
  * Everything the projections of some pieces need, in four queries whatever their number: the pieces,
- * their readings, their designs and their families' settings. The nightly run loads a hundred pieces at
- * a time this way.
+ * their readings, their designs and their families' settings. The nightly run loads 250 pieces at a
+ * time this way.
  */
 export async function loadPiecesForProjection(db: Db, ids: string[], now: Date): Promise<PieceForProjection[]> {
   if (!ids.length) return [];
@@ -56,7 +56,7 @@ export async function loadPiecesForProjection(db: Db, ids: string[], now: Date):
   );
   // Each piece's live readings as one JSON array, oldest first, with times as ISO text written by
   // PostgreSQL: parsing twenty rows and timestamps a piece in Node was a large part of the nightly load
-  // (measured; the nightly run is bound by this process's one core). Kept as text: it is hashed as it is.
+  // (measured; the nightly run is bound by CPU). Kept as text: it is hashed as it is.
   const readings: Array<{ piece_id: string; list: string }> = await db.query(
     `SELECT r.piece_id, json_agg(json_build_array(r.id, ${isoSql('r.taken_at')}, ${numSql('r.value_mm')}, r.support, r.sky,
                                                   extract(hour FROM r.taken_at AT TIME ZONE pl.time_zone)::int) ORDER BY r.taken_at)::text AS list
@@ -65,7 +65,7 @@ export async function loadPiecesForProjection(db: Db, ids: string[], now: Date):
       GROUP BY r.piece_id`,
     [ids],
   );
-  // Each design and each family once, not once per piece (a batch holds a hundred pieces of a few of each).
+  // Each design and each family once, not once per piece (a batch holds 250 pieces of a few of each).
   const designIds = [...new Set(rows.map((r) => r.design_id))];
   const designs = new Map<string, DesignSpec>(
     (await db.query(`SELECT id, spec FROM member_design WHERE id = ANY($1::uuid[])`, [designIds]) as Array<{ id: string; spec: DesignSpec }>).map((x) => [x.id, x.spec]),
