@@ -37,9 +37,16 @@ export interface PieceForProjection {
 }
 
 /**
- * Everything the projections of some pieces need, in four queries whatever their number: the pieces,
- * their readings, their designs and their families' settings. The nightly run loads 250 pieces at a
- * time this way.
+ * Everything the projections of some pieces need, in three queries whatever their number: the pieces
+ * with their readings, their designs and their families' settings. The nightly run loads 250 pieces at
+ * a time this way.
+ *
+ * Each piece's live readings come as one JSON array, oldest first, with times as ISO text written by
+ * PostgreSQL (parsing twenty rows and timestamps a piece in Node was a large part of the nightly load,
+ * measured), kept as text: it is hashed as it is. They are read piece by piece from the covering index
+ * reading_piece_live_idx without touching the table: a plant's readings arrive day by day, so a piece's
+ * twenty lie on twenty pages, and reading those pages was the largest database cost of a night
+ * (migration ReadingLiveIndex).
  */
 export async function loadPiecesForProjection(db: Db, ids: string[], now: Date): Promise<PieceForProjection[]> {
   if (!ids.length) return [];
@@ -49,20 +56,12 @@ export async function loadPiecesForProjection(db: Db, ids: string[], now: Date):
             pr.piece_id IS NOT NULL AS has_projection, pr.result_hash, pr.erection_mm::float8 AS stored_erection_mm, pr.differential_mm::float8 AS stored_differential_mm,
             (SELECT json_agg(json_build_object('id', f.id, 'kind', f.kind, 'severity', f.severity, 'reason', f.reason))
                FROM piece_flag f WHERE f.piece_id = p.id AND f.cleared_at IS NULL) AS flags,
-            EXISTS (SELECT 1 FROM projection_failure x WHERE x.piece_id = p.id) AS had_failure
+            EXISTS (SELECT 1 FROM projection_failure x WHERE x.piece_id = p.id) AS had_failure,
+            (SELECT json_agg(json_build_array(r.id, ${isoSql('r.taken_at')}, ${numSql('r.value_mm')}, r.support, r.sky,
+                                              extract(hour FROM r.taken_at AT TIME ZONE pl.time_zone)::int) ORDER BY r.taken_at)
+               FROM reading r WHERE r.piece_id = p.id AND r.superseded_by IS NULL)::text AS readings
        FROM piece p JOIN member_design d ON d.id = p.design_id JOIN plant pl ON pl.id = p.plant_id LEFT JOIN projection pr ON pr.piece_id = p.id
       WHERE p.id = ANY($1::uuid[])`,
-    [ids],
-  );
-  // Each piece's live readings as one JSON array, oldest first, with times as ISO text written by
-  // PostgreSQL: parsing twenty rows and timestamps a piece in Node was a large part of the nightly load
-  // (measured; the nightly run is bound by CPU). Kept as text: it is hashed as it is.
-  const readings: Array<{ piece_id: string; list: string }> = await db.query(
-    `SELECT r.piece_id, json_agg(json_build_array(r.id, ${isoSql('r.taken_at')}, ${numSql('r.value_mm')}, r.support, r.sky,
-                                                  extract(hour FROM r.taken_at AT TIME ZONE pl.time_zone)::int) ORDER BY r.taken_at)::text AS list
-       FROM reading r JOIN plant pl ON pl.id = r.plant_id
-      WHERE r.piece_id = ANY($1::uuid[]) AND r.superseded_by IS NULL
-      GROUP BY r.piece_id`,
     [ids],
   );
   // Each design and each family once, not once per piece (a batch holds 250 pieces of a few of each).
@@ -72,7 +71,6 @@ export async function loadPiecesForProjection(db: Db, ids: string[], now: Date):
   );
   const familyKeys = new Map(rows.map((r) => [`${r.plant_id}|${r.product_type}`, { plantId: r.plant_id, productType: r.product_type }]));
   const families = await familiesForProjection(db, [...familyKeys.values()]);
-  const readingsOf = new Map(readings.map((x) => [x.piece_id, x.list]));
   const specs = new Map<string, { spec: DesignSpec; json: string }>(); // per design and family
   const todayIn = new Map<string, string>(); // the plant's date, once per time zone
   const byId = new Map<string, PieceForProjection>();
@@ -85,7 +83,7 @@ export async function loadPiecesForProjection(db: Db, ids: string[], now: Date):
       specs.set(specKey, { spec, json: JSON.stringify(spec) });
     }
     if (!todayIn.has(r.time_zone)) todayIn.set(r.time_zone, dateInZone(now, r.time_zone));
-    byId.set(r.id, toPieceForProjection(r, readingsOf.get(r.id) ?? '[]', specs.get(specKey)!, family, todayIn.get(r.time_zone)!));
+    byId.set(r.id, toPieceForProjection(r, r.readings ?? '[]', specs.get(specKey)!, family, todayIn.get(r.time_zone)!));
   }
   return ids.flatMap((id) => byId.get(id) ?? []);
 }
@@ -94,7 +92,7 @@ interface PieceRow {
   id: string; plant_id: string; mark: string; status: string; bay: string | null; job_id: string; cast_date: string; release_date: string;
   ship_date: string | null; erection_date: string | null; design_id: string; product_type: string; time_zone: string; unit_system: string;
   has_projection: boolean; result_hash: string | null; stored_erection_mm: number | null; stored_differential_mm: number | null;
-  flags: Array<Omit<ActiveFlag, 'piece_id'>> | null; had_failure: boolean;
+  flags: Array<Omit<ActiveFlag, 'piece_id'>> | null; had_failure: boolean; readings: string | null;
 }
 
 /** A reading as the load query writes it: id, taken at (ISO), value (mm), support, sky, hour on the plant's clock. */
