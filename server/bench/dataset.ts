@@ -36,7 +36,7 @@ export async function makeDataset(ds: DataSource, pieces = 50_000, readingsPerPi
                              latest_mm, latest_expected_mm, latest_low_mm, latest_high_mm, ship_mm, ship_low_mm, ship_high_mm, erection_mm, erection_low_mm, erection_high_mm,
                              tolerance_mm, differential_mm, measured_ratio, curve, note)
      SELECT id, $1, now(), 'bench', 'aashto', 20, 1, 0.1, 1, 50, 48, 40, 56, 52, 45, 59, 52, 45, 59, 19.05, 19.05, 1.04,
-            '[{"ageDays":1,"camberMm":20,"lowMm":15,"highMm":25,"toleranceLowMm":1,"toleranceHighMm":39,"calibratedMm":20,"calibratedLowMm":15,"calibratedHighMm":25}]', 'bench'
+            float4send(1) || float4send(20) || float4send(15) || float4send(25) || float4send(1) || float4send(39) || float4send(20) || float4send(15) || float4send(25), 'bench'
        FROM piece WHERE plant_id = $1`,
     [plant.id],
   );

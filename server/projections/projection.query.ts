@@ -2,6 +2,7 @@ import type { SessionUser } from '#shared/api/auth';
 import type { FlagDto, PieceProjection } from '#shared/api/review';
 import type { Deps } from '../deps';
 import { notFound } from '../http/errors';
+import { curvePoints } from './stored-result';
 
 /** The stored projection of a piece with its active flags (viewers: only pieces of their job). */
 export async function pieceProjection(d: Deps, user: SessionUser, pieceId: string): Promise<PieceProjection> {
@@ -31,7 +32,7 @@ export async function pieceProjection(d: Deps, user: SessionUser, pieceId: strin
           atShip: range(pr.ship_mm, pr.ship_low_mm, pr.ship_high_mm),
           atErection: range(pr.erection_mm, pr.erection_low_mm, pr.erection_high_mm),
           note: String(pr.note),
-          curve: pr.curve as NonNullable<PieceProjection['projection']>['curve'],
+          curve: curvePoints(pr.curve as Buffer),
         }
       : null,
     flags: flags.map((f) => ({ kind: f.kind, severity: f.severity, reason: f.reason, raisedAt: new Date(f.raised_at).toISOString() })),

@@ -8,7 +8,7 @@ import { isoSql, numSql } from '../db/json-sql';
 import { familiesForProjection, type FamilyForProjection } from '../settings/settings.repository';
 import type { Statement } from '../db/statement';
 import type { ActiveFlag } from './flag-sync';
-import { curvePoints, type StoredResult } from './stored-result';
+import type { StoredResult } from './stored-result';
 
 type Db = DataSource | EntityManager;
 
@@ -158,17 +158,17 @@ export interface Projected { piece: PieceForProjection; flags: ProjectionResult[
 export function addProjectionWrites(st: Statement, b: { changed: Array<{ stored: StoredResult; inputsHash: string }>; unchanged: Array<{ pieceId: string; inputsHash: string }>; unfailed: string[] }, now: Date): void {
   const at = b.changed.length || b.unchanged.length ? st.param(now) : '';
   if (b.changed.length) {
-    const rows = b.changed.map(({ stored, inputsHash }) => ({ ...stored.columns, curve: curvePoints(stored.curve), inputs_hash: inputsHash, result_hash: stored.hash }));
+    const rows = b.changed.map(({ stored, inputsHash }) => ({ ...stored.columns, curve: stored.curve.toString('base64'), inputs_hash: inputsHash, result_hash: stored.hash }));
     st.with(`INSERT INTO projection (piece_id, plant_id, computed_at, inputs_hash, result_hash, method, readings_used, growth_factor, growth_factor_sd, elastic_factor,
                              latest_mm, latest_expected_mm, latest_low_mm, latest_high_mm, ship_mm, ship_low_mm, ship_high_mm,
                              erection_mm, erection_low_mm, erection_high_mm, tolerance_mm, differential_mm, measured_ratio, curve, note)
      SELECT x.piece_id, x.plant_id, ${at}, x.inputs_hash, x.result_hash, x.method, x.readings_used, x.growth_factor, x.growth_factor_sd, x.elastic_factor,
             x.latest_mm, x.latest_expected_mm, x.latest_low_mm, x.latest_high_mm, x.ship_mm, x.ship_low_mm, x.ship_high_mm,
-            x.erection_mm, x.erection_low_mm, x.erection_high_mm, x.tolerance_mm, x.differential_mm, x.measured_ratio, x.curve, x.note
+            x.erection_mm, x.erection_low_mm, x.erection_high_mm, x.tolerance_mm, x.differential_mm, x.measured_ratio, decode(x.curve, 'base64'), x.note
        FROM jsonb_to_recordset(${st.param(JSON.stringify(rows))}::jsonb) AS x(piece_id uuid, plant_id uuid, inputs_hash text, result_hash text, method text, readings_used int, growth_factor numeric,
             growth_factor_sd numeric, elastic_factor numeric, latest_mm numeric, latest_expected_mm numeric, latest_low_mm numeric, latest_high_mm numeric,
             ship_mm numeric, ship_low_mm numeric, ship_high_mm numeric, erection_mm numeric, erection_low_mm numeric, erection_high_mm numeric,
-            tolerance_mm numeric, differential_mm numeric, measured_ratio numeric, curve jsonb, note text)
+            tolerance_mm numeric, differential_mm numeric, measured_ratio numeric, curve text, note text)
      ON CONFLICT (piece_id) DO UPDATE SET computed_at = EXCLUDED.computed_at, inputs_hash = EXCLUDED.inputs_hash, result_hash = EXCLUDED.result_hash,
        method = EXCLUDED.method, readings_used = EXCLUDED.readings_used, growth_factor = EXCLUDED.growth_factor, growth_factor_sd = EXCLUDED.growth_factor_sd,
        elastic_factor = EXCLUDED.elastic_factor, latest_mm = EXCLUDED.latest_mm, latest_expected_mm = EXCLUDED.latest_expected_mm,

@@ -1,7 +1,8 @@
 // What is stored of a projection result, and its hash. The nightly run compares the hash with the stored
-// one and rewrites only results that changed (most pieces on most nights), so the hash is taken over the
-// values themselves: the curve's rounded numbers as binary, not its JSON (writing the JSON of every
-// curve only to hash it was a fifth of the nightly run's time in this process, measured).
+// one and rewrites only results that changed (most pieces on most nights). The curve is stored as binary
+// (migration ProjectionCurveBinary): each value rounded to 0.01 and written as a 4-byte float, point after
+// point, CURVE_FIELDS in order; the hash is taken over those bytes (writing the JSON of every curve only
+// to hash it was a fifth of the nightly run's time in this process, measured).
 import { createHash } from 'node:crypto';
 import type { CurvePointMm, ProjectionResult } from '#shared/projection/project';
 
@@ -11,14 +12,19 @@ const WIDTH = CURVE_FIELDS.length;
 export interface StoredResult {
   /** The projection's columns apart from the curve and from when and which inputs it was computed. */
   columns: Record<string, unknown>;
-  /** The curve, rounded: point after point, CURVE_FIELDS in order. */
-  curve: Float64Array;
+  /** The curve as stored: point after point, CURVE_FIELDS in order, 4-byte floats, big-endian. */
+  curve: Buffer;
   hash: string;
 }
 
 const n = (v: number | null | undefined): number | null => (v === undefined || v === null || !Number.isFinite(v) ? null : v);
-/** Curve points are stored to 0.01 mm and 0.01 day: far finer than a tape reads, half the JSON of full doubles. */
+/**
+ * Curve points are stored to 0.01 mm and 0.01 day, far finer than a tape reads. A 4-byte float holds such
+ * a value to better than 0.0001 below 1,000 (days or mm), so rounding what it reads back gives the value
+ * written.
+ */
 const r2 = (v: number): number => Math.round(v * 100) / 100;
+const BYTES = 4;
 
 export function storedResult(pieceId: string, plantId: string, r: ProjectionResult): StoredResult {
   const columns = {
@@ -29,25 +35,30 @@ export function storedResult(pieceId: string, plantId: string, r: ProjectionResu
     erection_mm: n(r.erection?.mm), erection_low_mm: n(r.erection?.lowMm), erection_high_mm: n(r.erection?.highMm),
     tolerance_mm: r.toleranceMm, differential_mm: r.differentialMm, measured_ratio: n(r.measuredRatio), note: r.note,
   };
-  const curve = new Float64Array(r.curve.length * WIDTH);
+  const curve = Buffer.alloc(r.curve.length * WIDTH * BYTES);
+  const view = new DataView(curve.buffer, curve.byteOffset, curve.byteLength);
   let k = 0;
+  const put = (v: number): void => {
+    view.setFloat32(k, r2(v), false); // big-endian, as float4send writes (the migration's conversion)
+    k += BYTES;
+  };
   for (const p of r.curve) { // field by field, in CURVE_FIELDS order (a loop over the names was slower, measured)
-    curve[k] = r2(p.ageDays); curve[k + 1] = r2(p.camberMm); curve[k + 2] = r2(p.lowMm); curve[k + 3] = r2(p.highMm);
-    curve[k + 4] = r2(p.toleranceLowMm); curve[k + 5] = r2(p.toleranceHighMm);
-    curve[k + 6] = r2(p.calibratedMm); curve[k + 7] = r2(p.calibratedLowMm); curve[k + 8] = r2(p.calibratedHighMm);
-    k += WIDTH;
+    put(p.ageDays); put(p.camberMm); put(p.lowMm); put(p.highMm); put(p.toleranceLowMm); put(p.toleranceHighMm);
+    put(p.calibratedMm); put(p.calibratedLowMm); put(p.calibratedHighMm);
   }
-  const hash = createHash('sha256').update(JSON.stringify(columns)).update(new Uint8Array(curve.buffer)).digest('hex');
+  const hash = createHash('sha256').update(JSON.stringify(columns)).update(curve).digest('hex');
   return { columns, curve, hash };
 }
 
-/** The curve as stored (jsonb): one object per point. */
-export function curvePoints(curve: Float64Array): CurvePointMm[] {
+/** A stored curve read back: one point per nine values, each to 0.01 as it was written. */
+export function curvePoints(curve: Buffer): CurvePointMm[] {
+  const view = new DataView(curve.buffer, curve.byteOffset, curve.byteLength);
+  const at = (k: number): number => r2(view.getFloat32(k, false));
   const points: CurvePointMm[] = [];
-  for (let k = 0; k < curve.length; k += WIDTH) {
+  for (let k = 0; k + WIDTH * BYTES <= curve.length; k += WIDTH * BYTES) {
     points.push({
-      ageDays: curve[k]!, camberMm: curve[k + 1]!, lowMm: curve[k + 2]!, highMm: curve[k + 3]!, toleranceLowMm: curve[k + 4]!, toleranceHighMm: curve[k + 5]!,
-      calibratedMm: curve[k + 6]!, calibratedLowMm: curve[k + 7]!, calibratedHighMm: curve[k + 8]!,
+      ageDays: at(k), camberMm: at(k + 4), lowMm: at(k + 8), highMm: at(k + 12), toleranceLowMm: at(k + 16), toleranceHighMm: at(k + 20),
+      calibratedMm: at(k + 24), calibratedLowMm: at(k + 28), calibratedHighMm: at(k + 32),
     });
   }
   return points;

@@ -3,6 +3,7 @@ import { defaultFamilySettings, type CalibrationFamily, type FamilySettings } fr
 import { PRODUCT_TYPES, type ProductType } from '#shared/camber/schema';
 import { audit } from '../audit/audit.service';
 import type { Deps } from '../deps';
+import { curvePoints } from '../projections/stored-result';
 import { familySettings } from './settings.repository';
 
 export async function listSettings(d: Deps, user: SessionUser) {
@@ -42,11 +43,12 @@ const AGE_BUCKETS: Array<[string, number, number]> = [['at release (≤ 3 d)', 0
  * two readings), with a normal 95 % interval on the mean.
  */
 export async function calibrationView(d: Deps, user: SessionUser): Promise<CalibrationFamily[]> {
-  const pieces: Array<{ id: string; product_type: string; cast_date: string; curve: Array<{ ageDays: number; camberMm: number }>; growth_factor: string; readings_used: number }> = await d.ds.query(
+  const rows: Array<{ id: string; product_type: string; cast_date: string; curve: Buffer; growth_factor: string; readings_used: number }> = await d.ds.query(
     `SELECT p.id, md.product_type, p.cast_date::text AS cast_date, pr.curve, pr.growth_factor, pr.readings_used
        FROM piece p JOIN member_design md ON md.id = p.design_id JOIN projection pr ON pr.piece_id = p.id WHERE p.plant_id = $1`,
     [user.plantId],
   );
+  const pieces = rows.map((p) => ({ ...p, curve: curvePoints(p.curve) }));
   const readings: Array<{ piece_id: string; taken_at: string; value_mm: string }> = await d.ds.query(
     `SELECT piece_id, taken_at, value_mm FROM reading WHERE plant_id = $1 AND superseded_by IS NULL AND coalesce(sky, '') <> 'sun-on-top'`,
     [user.plantId],

@@ -4,6 +4,9 @@ import { predictInputSchema } from '#shared/camber/schema';
 import { reviewPageSchema } from '#shared/api/review';
 import { dateInZone } from '#shared/yard/schedule';
 import { checkAllBays, runProjection, runProjectionBatch } from '#server/projections/projection.service';
+import { curvePoints } from '#server/projections/stored-result';
+import { loadPiecesForProjection } from '#server/projections/projection.repository';
+import { projectPiece } from '#shared/projection/project';
 import { DEMO_DESIGNS } from '#seed/designs';
 import { signIn, testApp, type TestApp, type Session } from '../helpers/app';
 import { buildDesign, buildJob, buildPiece, buildPlantWithUsers, buildReading, PASSWORD } from '../helpers/factories';
@@ -165,6 +168,23 @@ describe('flags from the projection job', () => {
   });
 });
 
+describe('the stored curve', () => {
+  it('when a projection is stored, then the piece page gets the engine\'s curve, every value to 0.01', async () => {
+    const p = await pieceWith(30, [{ age: 7, inches: (c) => c.camber }, { age: 28, inches: (c) => c.camber * 1.05 }], { shipInDays: 20 });
+    const at = new Date();
+    await runProjection(t.deps, p.id, at);
+    const [loaded] = await loadPiecesForProjection(t.ds, [p.id], at);
+    const engine = projectPiece(loaded!.input()).curve;
+    const res = await qc.agent.get(`/api/pieces/${p.id}/projection`);
+    expect(res.status).toBe(200);
+    const shown: Array<Record<string, number>> = res.body.projection.curve;
+    expect(shown).toHaveLength(engine.length);
+    expect(engine.length).toBeGreaterThan(10);
+    const to01 = (v: number): number => Math.round(v * 100) / 100;
+    expect(shown).toEqual(engine.map((pt) => Object.fromEntries(Object.entries(pt).map(([k, v]) => [k, to01(v)]))));
+  });
+});
+
 describe('night after night', () => {
   const night = (n: number): Date => new Date(Date.now() + n * DAY);
 
@@ -176,8 +196,9 @@ describe('night after night', () => {
       await runProjection(t.deps, p.id, night(n));
       const [pr] = await t.ds.query(`SELECT result_hash, curve FROM projection WHERE piece_id = $1`, [p.id]);
       const todayAge = (Date.parse(`${isoDay(night(n))}T12:00:00Z`) - Date.parse(`${cast}T00:00:00Z`)) / DAY; // ages of dates are at noon
-      expect(pr.curve.at(-1).ageDays).toBeGreaterThanOrEqual(todayAge + 30);
-      expect(pr.curve.at(-1).ageDays).toBeLessThan(todayAge + 30 + 7);
+      const last = curvePoints(pr.curve).at(-1)!;
+      expect(last.ageDays).toBeGreaterThanOrEqual(todayAge + 30);
+      expect(last.ageDays).toBeLessThan(todayAge + 30 + 7);
       seen.push(pr.result_hash);
     }
     const changes = seen.slice(1).filter((h, i) => h !== seen[i]).length;

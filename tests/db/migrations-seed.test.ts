@@ -8,6 +8,7 @@ import { seedDemo, isDriftingIndex } from '#seed/demo';
 import { loadConfig } from '#server/config';
 import { createMailer } from '#server/mail/mailer';
 import { recomputeAll } from '#server/projections/projection.service';
+import { curvePoints } from '#server/projections/stored-result';
 import { reviewList } from '#server/review/review.repository';
 import { loadSessionUser } from '#server/users/users.repository';
 
@@ -81,6 +82,26 @@ describe('migrations and the demo scenario on an empty database', () => {
       const drifting = pieces.filter((p, i) => isDriftingIndex(i) && p.status !== 'shipped').map((p) => p.mark).sort();
       expect(drifting.length).toBeGreaterThan(0);
       expect(list.items.map((i) => i.mark).sort()).toEqual(drifting);
+    } finally {
+      await ds.destroy();
+    }
+  });
+  it('when the binary curve migration is reverted and applied again, then every stored curve reads the same points and bytes', async () => {
+    // Runs on the projections the previous test stored (the demo, recomputed).
+    const ds = createDataSource(url, 2);
+    await ds.initialize();
+    try {
+      const stored: Array<{ piece_id: string; curve: Buffer }> = await ds.query(`SELECT piece_id, curve FROM projection ORDER BY piece_id`);
+      expect(stored.length).toBeGreaterThan(50);
+      expect(stored.every((r) => r.curve.length > 0 && r.curve.length % 36 === 0)).toBe(true);
+      const all = MIGRATIONS.map((M) => new M().name);
+      const back = all.length - all.indexOf('ProjectionCurveBinary1797379200000');
+      for (let i = 0; i < back; i++) await revertLast(url);
+      const asJson: Array<{ piece_id: string; curve: unknown }> = await ds.query(`SELECT piece_id, curve FROM projection ORDER BY piece_id`);
+      expect(asJson.map((r) => r.curve)).toEqual(stored.map((r) => curvePoints(r.curve)));
+      await migrate(url);
+      const again: Array<{ piece_id: string; curve: Buffer }> = await ds.query(`SELECT piece_id, curve FROM projection ORDER BY piece_id`);
+      expect(again).toEqual(stored);
     } finally {
       await ds.destroy();
     }
