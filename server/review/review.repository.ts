@@ -37,18 +37,21 @@ export async function reviewList(ds: DataSource, user: SessionUser, q: ReviewQue
     ? `(SELECT coalesce(sum(${q.view === 'needs-decision' ? 'needs_decision' : 'flagged'}), 0) FROM review_count WHERE plant_id = $1)`
     : `(SELECT count(*) FROM review_item r WHERE ${filter})`;
   // Days to ship count from today on the plant's clock.
-  const n = args.push(q.pageSize, (q.page - 1) * q.pageSize, q.page, dateInZone(new Date(), user.timeZone));
-  // Each row's JSON is stored (migration ReviewItemDoc) but for its days to ship: the page is those
-  // rows joined as text, with the days put in front of each.
-  const [row] = await preparedRows<{ body: string }>(
+  const n = args.push(dateInZone(new Date(), user.timeZone), q.pageSize, (q.page - 1) * q.pageSize);
+  // Each row's JSON is stored (migration ReviewItemDoc) but for its days to ship, which is put in front
+  // of it here: PostgreSQL sends the page's rows in index order with the total beside each, and the
+  // page is joined as text. (Joining it in SQL cost twice the page's read, measured: substr on UTF-8 text
+  // counts every character, and string_agg sorted the rows again.)
+  const rows = await preparedRows<{ total: string; days: number | null; doc: string }>(
     ds,
-    `WITH page AS (SELECT r.doc, r.ship_date, r.max_severity, r.mark FROM review_item r WHERE ${filter} ORDER BY ${ORDER[q.sort]('r')} LIMIT $${n - 3} OFFSET $${n - 2})
-     SELECT '{"items":[' || coalesce((SELECT string_agg('{"daysToShip":' || coalesce((page.ship_date - $${n}::date)::text, 'null') || ',' || substr(page.doc, 2), ','
-                                                        ORDER BY ${ORDER[q.sort]('page')}) FROM page), '')
-            || '],"total":' || ${total} || ',"page":' || $${n - 1}::int || ',"pageSize":' || $${n - 3}::int || '}' AS body`,
+    `SELECT ${total} AS total, r.ship_date - $${n - 2}::date AS days, r.doc FROM review_item r
+      WHERE ${filter} ORDER BY ${ORDER[q.sort]('r')} LIMIT $${n - 1} OFFSET $${n}`,
     args,
   );
-  return new JsonText(row!.body);
+  // A page past the end has no row to carry the total.
+  const count = rows[0]?.total ?? (await preparedRows<{ total: string }>(ds, `SELECT ${total} AS total`, args.slice(0, n - 3)))[0]!.total;
+  const items = rows.map((r) => `{"daysToShip":${r.days ?? 'null'},${r.doc.slice(1)}`).join(',');
+  return new JsonText(`{"items":[${items}],"total":${Number(count)},"page":${q.page},"pageSize":${q.pageSize}}`);
 }
 
 /** Folds the review totals' delta rows into one row per plant (migration ReviewCount). */
