@@ -4,13 +4,15 @@ import type { Deps } from '../deps';
 import { isoSql, JsonText } from '../db/json-sql';
 import { preparedRows } from '../db/prepared';
 import { notFound } from '../http/errors';
-import { READING_FROM, READING_JSON } from '../readings/readings.repository';
+import { READING_COLUMNS, READING_FROM } from '../readings/readings.repository';
 import { PIECE_FROM, pieceJson } from './pieces.repository';
 
 /**
  * The piece page (`pieceDetailSchema`): piece, design, readings (newest first) and decisions, as one
  * prepared statement that builds the JSON; it is the office's most used read, and one round trip with no
- * row mapping in Node is most of its cost.
+ * row mapping in Node is most of its cost. The readings come from a sorted subquery, the way the
+ * PostgreSQL manual (§4.2.7, aggregate expressions) gives for ordering an aggregate's input: `json_agg`
+ * has no partial form, so the rows reach it in the subquery's order.
  */
 export async function pieceDetail(d: Deps, user: SessionUser, id: string): Promise<JsonText<PieceDetail>> {
   const args: unknown[] = [id, user.plantId];
@@ -24,7 +26,7 @@ export async function pieceDetail(d: Deps, user: SessionUser, id: string): Promi
     `SELECT json_build_object(
         'piece', ${pieceJson(true)},
         'design', json_build_object('id', d.id, 'code', d.code, 'name', d.name, 'version', d.version, 'productType', d.product_type, 'spec', d.spec),
-        'readings', coalesce((SELECT json_agg(${READING_JSON} ORDER BY r.taken_at DESC, r.received_at DESC) FROM ${READING_FROM} WHERE r.piece_id = p.id), '[]'),
+        'readings', coalesce((SELECT json_agg(x) FROM (SELECT ${READING_COLUMNS} FROM ${READING_FROM} WHERE r.piece_id = p.id ORDER BY r.taken_at DESC, r.received_at DESC) x), '[]'),
         'decisions', coalesce((SELECT json_agg(json_build_object('id', x.id, 'kind', x.kind, 'comment', x.comment, 'decidedBy', xu.name, 'decidedAt', ${isoSql('x.decided_at')}) ORDER BY x.decided_at DESC)
                                  FROM decision x JOIN app_user xu ON xu.id = x.decided_by WHERE x.piece_id = p.id), '[]')
       )::text AS body
