@@ -57,6 +57,8 @@ async function main(): Promise<void> {
   const cookies = login.headers.getSetCookie();
   const headers = { Cookie: cookies.map((c) => c.split(';')[0]).join('; '), 'X-CSRF-Token': /cw_csrf=([^;]+)/.exec(cookies.join(';'))![1]!, 'Content-Type': 'application/json' };
   const ids = data.pieceIds;
+  // Every piece of the plant in a scrambled order: more pages than the server keeps, so each is built.
+  const allIds: string[] = (await ds.query(`SELECT id FROM piece WHERE plant_id = $1 ORDER BY md5(id::text)`, [data.plantId])).map((r: { id: string }) => r.id);
 
   // Rounds of the anchor and each list in turn, so a slow moment of the machine hits them alike; the
   // figures are medians over the rounds with their spread, and each round's ratio is to its own anchor.
@@ -64,10 +66,11 @@ async function main(): Promise<void> {
   const GETS = {
     anchor: { name: 'anchor: bare Express + pg by id', url: bareUrl, headers: {}, path: (i: number) => `/bare/${ids[i % ids.length]}` },
     review: { name: 'review list (50 flagged pieces)', url: `${oursUrl}/api/review?view=all-flagged&pageSize=50`, headers, path: undefined },
-    piece: { name: 'piece page (detail + readings)', url: oursUrl, headers, path: (i: number) => `/api/pieces/${ids[i % ids.length]}` },
+    piece: { name: 'piece page (1,000 pieces in turn)', url: oursUrl, headers, path: (i: number) => `/api/pieces/${ids[i % ids.length]}` },
+    pieceFirst: { name: 'piece page, first view (50,000 in turn)', url: oursUrl, headers, path: (i: number) => `/api/pieces/${allIds[i % allIds.length]}` },
     list: { name: 'piece list (50 of 50,000, latest reading)', url: `${oursUrl}/api/pieces?sort=shipDate&pageSize=50`, headers, path: undefined },
   };
-  const results: Record<keyof typeof GETS, Result[]> = { anchor: [], review: [], piece: [], list: [] };
+  const results: Record<keyof typeof GETS, Result[]> = { anchor: [], review: [], piece: [], pieceFirst: [], list: [] };
   for (let r = 0; r < rounds; r++) {
     for (const key of Object.keys(GETS) as Array<keyof typeof GETS>) {
       const g = GETS[key];
