@@ -29,6 +29,7 @@ const TRIGGERS: Array<[string, 'INSERT' | 'UPDATE' | 'DELETE', string]> = [
   ['piece', 'UPDATE', 'piece_page_bump_by_id'],
   ['reading', 'INSERT', 'piece_page_bump_by_piece_id'],
   ['reading', 'UPDATE', 'piece_page_bump_by_piece_id'],
+  ['reading', 'DELETE', 'piece_page_bump_by_piece_id'],
   ['reading_photo', 'INSERT', 'piece_page_bump_by_photo'],
   ['reading_photo', 'DELETE', 'piece_page_bump_by_photo'],
   ['decision', 'INSERT', 'piece_page_bump_by_piece_id'],

@@ -46,7 +46,7 @@ const postReading = (pieceId: string, key: string, over: Record<string, unknown>
     .send({ pieceId, value: '1 3/8', unit: 'in', takenAt: '2026-11-20T07:30:00-06:00', method: 'level', support: 'dunnage', ...over });
 
 describe('GET /api/pieces/:id after a change', () => {
-  it('when a reading is logged, corrected, photographed or fixed, then the next view shows each step', async () => {
+  it('when a reading is logged, corrected, photographed, fixed or removed, then the next view shows each step', async () => {
     const piece = await buildPiece(t.ds, plant.plantId);
     let logged = '';
     const a = await afterChange(piece.id, async () => (logged = (await postReading(piece.id, `rev-a-${piece.id}`)).body.id));
@@ -63,6 +63,11 @@ describe('GET /api/pieces/:id after a change', () => {
     // Readings are appended, but a data fix in the database must reach the page as well.
     const d = await afterChange(piece.id, () => t.ds.query(`UPDATE reading SET note = 'tape checked' WHERE id = $1`, [fix]));
     expect(d.readings.find((r) => r.id === fix)?.note).toBe('tape checked');
+    const e = await afterChange(piece.id, () => t.ds.query(`DELETE FROM reading_photo WHERE reading_id = $1`, [fix]));
+    expect(e.readings.find((r) => r.id === fix)?.hasPhoto).toBe(false);
+    await t.ds.query(`UPDATE reading SET superseded_by = NULL WHERE id = $1`, [logged]);
+    const f = await afterChange(piece.id, () => t.ds.query(`DELETE FROM reading WHERE id = $1`, [fix]));
+    expect(f.readings.map((r) => r.id)).toEqual([logged]);
   });
 
   it('when a decision is recorded or the piece row changes, then the next view shows it', async () => {
@@ -70,6 +75,9 @@ describe('GET /api/pieces/:id after a change', () => {
     const before = await view(qc, piece.id);
     const held = await afterChange(piece.id, () => qc.agent.post(`/api/pieces/${piece.id}/decisions`).set('X-CSRF-Token', qc.csrf).send({ kind: 'hold', comment: 'measure at dawn', version: before.piece.version }));
     expect([held.piece.status, held.decisions.map((x) => x.comment)]).toEqual(['hold', ['measure at dawn']]);
+    // A decision written alone (as a data fix would), without the piece's status changing with it.
+    const noted = await afterChange(piece.id, () => t.ds.query(`INSERT INTO decision (plant_id, piece_id, kind, comment, decided_by) VALUES ($1, $2, 'remeasure', 'second tape', $3)`, [plant.plantId, piece.id, plant.users.qc_manager.id]));
+    expect(noted.decisions.map((x) => x.comment)).toEqual(['second tape', 'measure at dawn']);
     const moved = await afterChange(piece.id, () => t.ds.query(`UPDATE piece SET bed = 'Bed 9' WHERE id = $1`, [piece.id]));
     expect(moved.piece.bed).toBe('Bed 9');
   });
