@@ -8,6 +8,7 @@ import { sendDigest } from '../alerts/digest.service';
 import type { Deps, Jobs } from '../deps';
 import { activePieceIds, type BatchResult, checkAllBays, runProjectionBatch } from '../projections/projection.service';
 import { type BatchPool, createBatchPool } from '../projections/batch-pool';
+import { compactPieceCounts } from '../pieces/pieces.repository';
 import { compactReviewCounts } from '../review/review.repository';
 
 /**
@@ -76,10 +77,11 @@ export async function createJobs(d: Deps, opts: { schedule: boolean }): Promise<
       // to fetch again at once, so a nightly run of hundreds of batches is not paced by the interval.
       // Trouble with the database fails the batch and the queue retries it (a re-run stores the same
       // result); a piece the engine refuses fails its own job only.
-      // New flags mean a digest for their plants; the review totals' delta rows are folded each time.
+      // New flags mean a digest for their plants; the review totals' and piece counts' delta rows are folded each time.
       const afterRun = async (raised: BatchResult['raised']): Promise<void> => {
         for (const plantId of new Set(raised.map((x) => x.plantId))) await jobs.alertDigest(plantId);
         await compactReviewCounts(d.ds);
+        await compactPieceCounts(d.ds);
       };
       for (let w = 0; w < PROJECTION_WORKERS; w++) {
         const worker = { id: '' }; // known once work() returns, before the first batch ends

@@ -50,7 +50,8 @@ export const markKey = (s: string): string => s.toLowerCase().replace(/[^a-z0-9]
 
 /**
  * A page of the plant's pieces: paged on the piece's own columns first (an index per sort key), then the
- * latest reading read for the page's rows only, so a page never sorts every piece of the plant.
+ * latest reading read for the page's rows only, so a page never sorts every piece of the plant; the
+ * total is summed from kept counts unless the page searches by mark.
  */
 export async function listPieces(ds: DataSource, user: SessionUser, q: ListQuery): Promise<JsonText<PiecePage>> {
   const where = ['p.plant_id = $1'];
@@ -66,6 +67,9 @@ export async function listPieces(ds: DataSource, user: SessionUser, q: ListQuery
   if (q.jobId) add('p.job_id = ?', q.jobId);
   const dir = q.dir === 'desc' ? 'DESC' : 'ASC';
   const filter = where.join(' AND ');
+  // Without a mark search every filter is a column of the kept counts (migration PieceCount), named
+  // as on the piece, so the same conditions select them; a search is counted.
+  const total = q.q && markKey(q.q) ? `(SELECT count(*) FROM piece p WHERE ${filter})` : `(SELECT coalesce(sum(p.n), 0) FROM piece_count p WHERE ${filter})`;
   const n = args.push(q.pageSize, (q.page - 1) * q.pageSize, q.page);
   const [row] = await preparedRows<{ body: string }>(
     ds,
@@ -73,9 +77,14 @@ export async function listPieces(ds: DataSource, user: SessionUser, q: ListQuery
      SELECT json_build_object(
               'items', coalesce((SELECT json_agg(x.doc ORDER BY ${SORT_SQL[q.sort]} ${dir} NULLS LAST, x.mark ASC) FROM page CROSS JOIN LATERAL (
                  SELECT ${pieceJson(false)} AS doc, p.mark, p.cast_date, p.ship_date, p.status, j.number AS job_number FROM ${PIECE_FROM} WHERE p.id = page.id) x), '[]'),
-              'total', (SELECT count(*) FROM piece p WHERE ${filter}),
+              'total', ${total},
               'page', $${n}::int, 'pageSize', $${n - 2}::int)::text AS body`,
     args,
   );
   return new JsonText(row!.body);
+}
+
+/** Folds the piece counts' delta rows (migration PieceCount). */
+export async function compactPieceCounts(ds: DataSource): Promise<void> {
+  await ds.query('SELECT piece_count_compact()');
 }
