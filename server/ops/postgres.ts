@@ -52,7 +52,7 @@ async function isUp(port: number): Promise<boolean> {
  * readings' pages through the operating system (pgbench, 50,000 pieces at random: 0.31 ms a page with
  * 128 MB, 0.26 ms with 1 GB; README, Performance).
  */
-export function sharedBuffersMb(totalBytes = totalmem()): number {
+function sharedBuffersMb(totalBytes = totalmem()): number {
   return Math.max(128, Math.min(1024, Math.floor(totalBytes / 4 / 2 ** 20)));
 }
 

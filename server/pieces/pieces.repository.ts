@@ -60,8 +60,9 @@ export async function listPieces(ds: DataSource, user: SessionUser, q: ListQuery
     args.push(v);
     where.push(sql.replace('?', `$${args.length}`));
   };
+  const search = q.q ? markKey(q.q) : '';
   if (user.role === 'viewer') add('p.job_id = ?', user.jobId);
-  if (q.q && markKey(q.q)) add(`p.mark_key LIKE '%' || ? || '%'`, markKey(q.q));
+  if (search) add(`p.mark_key LIKE '%' || ? || '%'`, search);
   if (q.status) add('p.status = ?', q.status);
   if (q.productType) add('p.design_id IN (SELECT id FROM member_design WHERE plant_id = $1 AND product_type = ?)', q.productType);
   if (q.jobId) add('p.job_id = ?', q.jobId);
@@ -69,7 +70,7 @@ export async function listPieces(ds: DataSource, user: SessionUser, q: ListQuery
   const filter = where.join(' AND ');
   // Without a mark search every filter is a column of the kept counts (migration PieceCount), named
   // as on the piece, so the same conditions select them; a search is counted.
-  const total = q.q && markKey(q.q) ? `(SELECT count(*) FROM piece p WHERE ${filter})` : `(SELECT coalesce(sum(p.n), 0) FROM piece_count p WHERE ${filter})`;
+  const total = search ? `(SELECT count(*) FROM piece p WHERE ${filter})` : `(SELECT coalesce(sum(p.n), 0) FROM piece_count p WHERE ${filter})`;
   const n = args.push(q.pageSize, (q.page - 1) * q.pageSize, q.page);
   const [row] = await preparedRows<{ body: string }>(
     ds,
