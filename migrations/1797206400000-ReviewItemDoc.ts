@@ -9,7 +9,7 @@ const ISO = (col: string): string => `to_char(${col} AT TIME ZONE 'UTC', 'YYYY-M
  * (`reviewRowSchema` in shared/api/review.ts, all but `daysToShip`, which depends on the day it is read).
  * A change to that contract needs a migration that redefines this; the API tests parse the list with it.
  */
-const REFRESH_DOC = `
+export const REFRESH_DOC = `
         DELETE FROM review_item r WHERE r.piece_id = ANY(ids)
            AND NOT EXISTS (SELECT 1 FROM piece_flag f WHERE f.piece_id = r.piece_id AND f.cleared_at IS NULL);
         INSERT INTO review_item (piece_id, plant_id, job_id, design_id, mark, bay, status, ship_date, max_severity, last_serious_at,
@@ -49,7 +49,7 @@ const REFRESH_DOC = `
 `;
 
 /** What the row shows of a projection; a projection update that changes none of it leaves the row alone. */
-const SHOWN = 'latest_mm, latest_expected_mm, latest_low_mm, latest_high_mm, ship_mm, ship_low_mm, ship_high_mm';
+export const SHOWN = 'latest_mm, latest_expected_mm, latest_low_mm, latest_high_mm, ship_mm, ship_low_mm, ship_high_mm';
 
 /**
  * Each row of `review_item` keeps the JSON of its review-list row, so a page is its stored rows joined

@@ -2,7 +2,8 @@
 // over every active piece, and the alert digest. "stately" queues keep at most one queued and one
 // active job per key, so ten readings of one piece in a minute cause one projection run. The nightly run
 // queues its pieces 250 to a job: a job per piece cost the database more than the engine's own time per
-// piece (fetching and completing 50,000 job rows a night, measured).
+// piece (fetching and completing 50,000 job rows a night, measured). Once the night's batches are done,
+// one job checks every erection bay from the night's results.
 import PgBoss from 'pg-boss';
 import { sendDigest } from '../alerts/digest.service';
 import type { Deps, Jobs } from '../deps';
@@ -24,7 +25,10 @@ const PROJECTION_WORKERS = 3;
 /** A batch of the nightly run: its pieces, and the moment they are projected as of (ISO; absent in jobs queued before it existed). */
 interface BatchJob { pieceIds: string[]; asOf?: string }
 
-export const QUEUES = { projection: 'projection', nightly: 'projection-nightly', nightlyBatch: 'projection-nightly-batch', digest: 'alert-digest' } as const;
+export const QUEUES = { projection: 'projection', nightly: 'projection-nightly', nightlyBatch: 'projection-nightly-batch', nightlyBays: 'projection-nightly-bays', digest: 'alert-digest' } as const;
+
+/** Seconds between the bay check's looks at whether the night's batches are done. */
+const BAYS_WAIT_SECONDS = 1;
 
 export interface JobRunner extends Jobs {
   boss: PgBoss;
@@ -45,12 +49,16 @@ export async function createJobs(d: Deps, opts: { schedule: boolean }): Promise<
   const batchQueue: PgBoss.Queue = { name: QUEUES.nightlyBatch, policy: 'standard', retryLimit: 3, retryDelay: 2, retryBackoff: true, expireInSeconds: d.cfg.PROJECTION_EXPIRE_SECONDS };
   await boss.createQueue(QUEUES.nightlyBatch, batchQueue);
   await boss.updateQueue(QUEUES.nightlyBatch, batchQueue);
+  // The night's bay check: one queued at a time per plant (or for all plants), retried if the database fails.
+  await boss.createQueue(QUEUES.nightlyBays, { name: QUEUES.nightlyBays, policy: 'stately', retryLimit: 3, retryDelay: 2, retryBackoff: true, expireInSeconds: 600 });
   // The digest is retried for about a day: a mail server that is down for a while loses nothing.
   await boss.createQueue(QUEUES.digest, { name: QUEUES.digest, policy: 'stately', retryLimit: 40, retryDelay: 15, retryBackoff: true });
 
   // Nightly batches in threads of their own when configured (batch-pool.ts), else in this thread.
   let pool: BatchPool | null = null; // made when the workers start
-  const nightlyBatch = (ids: string[], asOf: Date): Promise<BatchResult> => (pool ? pool.run(ids, asOf, 'changed') : runProjectionBatch(d, ids, asOf, { bays: 'changed' }));
+  const nightlyBatch = (ids: string[], asOf: Date): Promise<BatchResult> => (pool ? pool.run(ids, asOf, 'none') : runProjectionBatch(d, ids, asOf, { bays: 'none' }));
+  const checkBaysAfterNight = (plantId: string | undefined, seconds: number): Promise<string | null> =>
+    boss.send(QUEUES.nightlyBays, { plantId }, { singletonKey: plantId ?? 'all', startAfter: seconds });
   let started = false;
   const batchWorkers: string[] = [];
   const jobs: JobRunner = {
@@ -64,6 +72,7 @@ export async function createJobs(d: Deps, opts: { schedule: boolean }): Promise<
       for (let i = 0; i < ids.length; i += PROJECTION_BATCH) batches.push({ name: QUEUES.nightlyBatch, data: { pieceIds: ids.slice(i, i + PROJECTION_BATCH), asOf: asOf.toISOString() } });
       if (batches.length) await boss.insert(batches);
       for (const id of batchWorkers) boss.notifyWorker(id); // idle workers start now, not at their next poll
+      await checkBaysAfterNight(plantId, BAYS_WAIT_SECONDS);
       return ids.length;
     },
     async alertDigest(plantId) {
@@ -108,9 +117,19 @@ export async function createJobs(d: Deps, opts: { schedule: boolean }): Promise<
       await boss.work<{ asOf?: string }>(QUEUES.nightly, { pollingIntervalSeconds: 0.5, includeMetadata: true }, async ([job]) => {
         const n = await jobs.projectAll(undefined, job?.data?.asOf ? new Date(job.data.asOf) : job?.createdOn);
         d.log.info({ pieces: n }, 'nightly projection queued');
-        // Every bay once a night, whatever changed its members (a piece shipped, moved, re-planned); the
-        // projection batches check only the bays of projections that changed.
-        await afterRun(await checkAllBays(d));
+      });
+      // Every bay once a night, after the night's last batch (also of a batch retried later), whatever
+      // changed its members (a piece shipped, moved, re-planned, projected anew). While batches remain,
+      // the check looks again a second later as a job of its own, so no worker waits idle for it.
+      await boss.work<{ plantId?: string }>(QUEUES.nightlyBays, { pollingIntervalSeconds: 0.5 }, async ([job]) => {
+        const [{ n }] = await d.ds.query(`SELECT count(*)::int AS n FROM pgboss.job WHERE name = $1 AND state < 'completed'`, [QUEUES.nightlyBatch]);
+        if (n > 0) {
+          await checkBaysAfterNight(job!.data.plantId, BAYS_WAIT_SECONDS);
+          return { batchesLeft: n };
+        }
+        const raised = await checkAllBays(d, job!.data.plantId);
+        await afterRun(raised);
+        return { raised: raised.length }; // kept as the job's output
       });
       await boss.work<{ plantId: string }>(QUEUES.digest, { pollingIntervalSeconds: 2 }, async (batch) => {
         for (const job of batch) await sendDigest(d, job.data.plantId);

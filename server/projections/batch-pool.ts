@@ -4,16 +4,16 @@
 // than the server's thread alone, measured. With PROJECTION_THREADS=0 they run in the server's thread.
 import { Worker } from 'node:worker_threads';
 import type { Config } from '../config';
-import type { BatchResult } from './projection.service';
+import type { BatchResult, BayCheck } from './projection.service';
 
-export interface BatchRequest { id: number; pieceIds: string[]; asOf: string; bays: 'all' | 'changed' }
+export interface BatchRequest { id: number; pieceIds: string[]; asOf: string; bays: BayCheck }
 /** A batch's outcome as it crosses threads: a refused piece's error as its message. */
 export type BatchReply =
   | { id: number; result: { projected: number; raised: BatchResult['raised']; failed: Array<{ pieceId: string; message: string }> } }
   | { id: number; error: string };
 
 export interface BatchPool {
-  run(pieceIds: string[], asOf: Date, bays: 'all' | 'changed'): Promise<BatchResult>;
+  run(pieceIds: string[], asOf: Date, bays: BayCheck): Promise<BatchResult>;
   close(): Promise<void>;
 }
 

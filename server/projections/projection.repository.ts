@@ -32,8 +32,8 @@ export interface PieceForProjection {
   hadFailure: boolean;
   /** Fingerprint of the engine's input (stored with the result: which inputs it was computed from). */
   inputsHash: string;
-  /** The projection stored now, if any: its result hash and what the bay check reads of it. */
-  stored: { resultHash: string | null; erectionMm: number | null; differentialMm: number } | null;
+  /** The projection stored now, if any: its result hash. */
+  stored: { resultHash: string | null } | null;
 }
 
 /**
@@ -53,7 +53,7 @@ export async function loadPiecesForProjection(db: Db, ids: string[], now: Date):
   const rows: PieceRow[] = await db.query(
     `SELECT p.id, p.plant_id, p.mark, p.status, p.bay, p.job_id, p.cast_date::text AS cast_date, p.release_date::text AS release_date,
             p.ship_date::text AS ship_date, p.erection_date::text AS erection_date, p.design_id, d.product_type, pl.time_zone, pl.unit_system,
-            pr.piece_id IS NOT NULL AS has_projection, pr.result_hash, pr.erection_mm::float8 AS stored_erection_mm, pr.differential_mm::float8 AS stored_differential_mm,
+            pr.piece_id IS NOT NULL AS has_projection, pr.result_hash,
             (SELECT json_agg(json_build_object('id', f.id, 'kind', f.kind, 'severity', f.severity, 'reason', f.reason))
                FROM piece_flag f WHERE f.piece_id = p.id AND f.cleared_at IS NULL) AS flags,
             EXISTS (SELECT 1 FROM projection_failure x WHERE x.piece_id = p.id) AS had_failure,
@@ -91,7 +91,7 @@ export async function loadPiecesForProjection(db: Db, ids: string[], now: Date):
 interface PieceRow {
   id: string; plant_id: string; mark: string; status: string; bay: string | null; job_id: string; cast_date: string; release_date: string;
   ship_date: string | null; erection_date: string | null; design_id: string; product_type: string; time_zone: string; unit_system: string;
-  has_projection: boolean; result_hash: string | null; stored_erection_mm: number | null; stored_differential_mm: number | null;
+  has_projection: boolean; result_hash: string | null;
   flags: Array<Omit<ActiveFlag, 'piece_id'>> | null; had_failure: boolean; readings: string | null;
 }
 
@@ -137,7 +137,7 @@ function toPieceForProjection(r: PieceRow, readingsText: string, spec: { spec: D
     jobId: r.job_id,
     activeFlags: (r.flags ?? []).map((f) => ({ ...f, piece_id: r.id })),
     hadFailure: r.had_failure,
-    stored: r.has_projection ? { resultHash: r.result_hash, erectionMm: r.stored_erection_mm, differentialMm: Number(r.stored_differential_mm) } : null,
+    stored: r.has_projection ? { resultHash: r.result_hash } : null,
     unit: rest.unit,
     input: () => ({ spec: spec.spec, ...rest, readings: readings() }),
     // Of everything the engine is given, from the texts it is built from: the spec's JSON once per design

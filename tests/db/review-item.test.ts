@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { buildPiece, buildPlant, buildUser } from '../helpers/factories';
 import { testApp, type TestApp } from '../helpers/app';
 
-// `review_item` is a stored summary kept by triggers (migrations ReviewItem, ReviewCount, ReviewItemDoc).
+// `review_item` is a stored summary kept by triggers (migrations ReviewItem, ReviewCount, ReviewItemDoc, ReviewItemShown).
 // Whatever the writers do, it must equal the summary computed from scratch from flags, decisions, pieces,
 // projections, jobs and designs.
 let t: TestApp;
@@ -32,6 +32,7 @@ type Op =
   | { op: 'delete-flags'; piece: number }
   | { op: 'compact' }
   | { op: 'project'; piece: number; mm: number | null }
+  | { op: 'project-and-raise'; piece: number; mm: number; kind: (typeof KINDS)[number]; flagFirst: boolean }
   | { op: 'rename-job'; piece: number }
   | { op: 'retype-design'; piece: number };
 
@@ -44,9 +45,16 @@ const opArb: fc.Arbitrary<Op> = fc.oneof(
   fc.record({ op: fc.constant('delete-flags' as const), piece: fc.nat(2) }),
   fc.constant({ op: 'compact' as const }),
   fc.record({ op: fc.constant('project' as const), piece: fc.nat(2), mm: fc.option(fc.integer({ min: -20, max: 120 })) }),
+  fc.record({ op: fc.constant('project-and-raise' as const), piece: fc.nat(2), mm: fc.integer({ min: -20, max: 120 }), kind: fc.constantFrom(...KINDS), flagFirst: fc.boolean() }),
   fc.record({ op: fc.constant('rename-job' as const), piece: fc.nat(2) }),
   fc.record({ op: fc.constant('retype-design' as const), piece: fc.nat(2) }),
 );
+
+const PROJECT = `INSERT INTO projection (piece_id, plant_id, computed_at, inputs_hash, method, readings_used, growth_factor, growth_factor_sd, elastic_factor,
+                                         latest_mm, latest_expected_mm, latest_low_mm, latest_high_mm, ship_mm, ship_low_mm, ship_high_mm, tolerance_mm, differential_mm, curve)
+                 VALUES ($1, $2, now(), 'test', 'test', 1, 1, 0.1, 1, $3::numeric, $3::numeric - 1.5, $3::numeric - 6.25, $3::numeric + 6.25, $3::numeric + 4, $3::numeric - 2, $3::numeric + 10, 19, 6, '[]')
+                 ON CONFLICT (piece_id) DO UPDATE SET latest_mm = EXCLUDED.latest_mm, latest_expected_mm = EXCLUDED.latest_expected_mm, latest_low_mm = EXCLUDED.latest_low_mm,
+                   latest_high_mm = EXCLUDED.latest_high_mm, ship_mm = EXCLUDED.ship_mm, ship_low_mm = EXCLUDED.ship_low_mm, ship_high_mm = EXCLUDED.ship_high_mm, computed_at = now()`;
 
 /** Each stored row's JSON (migration ReviewItemDoc) against the review row built here from the tables. */
 async function expectDocsFromScratch(plantId: string): Promise<void> {
@@ -105,15 +113,14 @@ describe('the stored review summary', () => {
             await t.ds.query(`UPDATE piece SET status = 'shipped' WHERE id = $1`, [id]);
           } else if (o.op === 'project') {
             // Figures shown in the row, or none (a projection without a reading yet).
-            const v = o.mm;
-            await t.ds.query(
-              `INSERT INTO projection (piece_id, plant_id, computed_at, inputs_hash, method, readings_used, growth_factor, growth_factor_sd, elastic_factor,
-                                       latest_mm, latest_expected_mm, latest_low_mm, latest_high_mm, ship_mm, ship_low_mm, ship_high_mm, tolerance_mm, differential_mm, curve)
-               VALUES ($1, $2, now(), 'test', 'test', 1, 1, 0.1, 1, $3, $3 - 1.5, $3 - 6.25, $3 + 6.25, $3 + 4, $3 - 2, $3 + 10, 19, 6, '[]')
-               ON CONFLICT (piece_id) DO UPDATE SET latest_mm = EXCLUDED.latest_mm, latest_expected_mm = EXCLUDED.latest_expected_mm, latest_low_mm = EXCLUDED.latest_low_mm,
-                 latest_high_mm = EXCLUDED.latest_high_mm, ship_mm = EXCLUDED.ship_mm, ship_low_mm = EXCLUDED.ship_low_mm, ship_high_mm = EXCLUDED.ship_high_mm, computed_at = now()`,
-              [id, plant.id, v],
-            );
+            await t.ds.query(PROJECT, [id, plant.id, o.mm]);
+          } else if (o.op === 'project-and-raise') {
+            // One statement storing a projection and raising a flag, as a projection batch does; either
+            // part may be the statement's last, so the triggers of either table may fire first.
+            const raise = `INSERT INTO piece_flag (plant_id, piece_id, kind, severity, reason, raised_at) VALUES ($2, $1, $4, 2, 'batch', $5)
+                           ON CONFLICT (piece_id, kind) WHERE cleared_at IS NULL DO UPDATE SET reason = 'batch again'`;
+            const [first, last] = o.flagFirst ? [raise, PROJECT] : [PROJECT, raise];
+            await t.ds.query(`WITH w0 AS (${first} RETURNING 1) ${last}`, [id, plant.id, o.mm, o.kind, at()]);
           } else if (o.op === 'rename-job') {
             await t.ds.query(`UPDATE job SET number = number || '-R' WHERE id = (SELECT job_id FROM piece WHERE id = $1)`, [id]);
           } else if (o.op === 'retype-design') {

@@ -32,7 +32,7 @@ describe('projection threads', () => {
     const ids = pieces.map((p) => p.id);
     const night = new Date('2026-12-10T02:30:00.000Z');
 
-    const inThread = await pool.run(ids, night, 'changed');
+    const inThread = await pool.run(ids, night, 'none');
     const fromThread = await stored(ids);
     expect(inThread.projected).toBe(3);
     expect(fromThread.map((r) => (r as { computed_at: Date }).computed_at.toISOString())).toEqual(Array(3).fill(night.toISOString()));
@@ -40,7 +40,7 @@ describe('projection threads', () => {
 
     await t.ds.query(`DELETE FROM piece_flag WHERE piece_id = ANY($1::uuid[])`, [ids]);
     await t.ds.query(`DELETE FROM projection WHERE piece_id = ANY($1::uuid[])`, [ids]);
-    const here = await runProjectionBatch(t.deps, ids, night, { bays: 'changed' });
+    const here = await runProjectionBatch(t.deps, ids, night, { bays: 'none' });
     expect(await stored(ids)).toEqual(fromThread);
     expect(here.raised.length).toBe(inThread.raised.length);
   });
@@ -50,7 +50,7 @@ describe('projection threads', () => {
     const good = await buildPiece(t.ds, plant.plantId);
     const bad = await buildPiece(t.ds, plant.plantId);
     await t.ds.query(`UPDATE member_design SET spec = spec || '{"length": -1}' WHERE id = (SELECT design_id FROM piece WHERE id = $1)`, [bad.id]);
-    const r = await pool.run([good.id, bad.id], new Date(), 'changed');
+    const r = await pool.run([good.id, bad.id], new Date(), 'none');
     expect(r.projected).toBe(1);
     expect(r.failed.map((f) => f.pieceId)).toEqual([bad.id]);
     expect(r.failed[0]!.error).toBeInstanceOf(Error);

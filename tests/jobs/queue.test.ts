@@ -7,7 +7,7 @@ import { createJobs, QUEUES, type JobRunner } from '#server/jobs/queue';
 import { createMailer } from '#server/mail/mailer';
 import { loadConfig } from '#server/config';
 import { signIn, testApp, type TestApp } from '../helpers/app';
-import { buildPiece, buildPlantWithUsers, buildReading, PASSWORD } from '../helpers/factories';
+import { buildDesign, buildJob, buildPiece, buildPlantWithUsers, buildReading, PASSWORD } from '../helpers/factories';
 import { mailsTo } from '../helpers/inbox';
 
 let t: TestApp;
@@ -88,6 +88,42 @@ describe('projection queue (pg-boss in PostgreSQL)', () => {
     );
     expect(asOf).toEqual([{ n: 3 }]);
     expect(extra).toHaveLength(3);
+  });
+
+  it('when a batch of the night runs late, then every bay is checked once, after it, from the night\'s results', async () => {
+    const plant = await buildPlantWithUsers(t.ds);
+    const job = await buildJob(t.ds, plant.plantId);
+    const design = await buildDesign(t.ds, plant.plantId);
+    const bay = await Promise.all([1, 2, 3].map(async (position) => {
+      const p = await buildPiece(t.ds, plant.plantId, { jobId: job.id, designId: design.id, castDate: '2026-10-01' });
+      await t.ds.query(`UPDATE piece SET bay = 'Bay 1', bay_position = $2, erection_date = ship_date + 2 WHERE id = $1`, [p.id, position]);
+      // The middle piece reads twice its neighbours' camber: projected far apart at erection.
+      await buildReading(t.ds, plant.plantId, p.id, plant.users.inspector.id, { valueMm: position === 2 ? 60 : 30, takenAt: '2026-10-20T15:00:00.000Z' });
+      return p;
+    }));
+    const night = new Date(Date.now() + 3 * 86_400_000);
+    await jobs.startWorkers();
+    // A batch of the night holding the bay's pieces, retried a few seconds late.
+    const late = await jobs.boss.send(QUEUES.nightlyBatch, { pieceIds: bay.map((p) => p.id), asOf: night.toISOString() }, { startAfter: 4 });
+    await jobs.projectAll(plant.plantId, night);
+    const state = async (id: string | null, name: string): Promise<{ state: string; completed_on: Date | null }> =>
+      (await t.ds.query(`SELECT state::text AS state, completed_on FROM pgboss.job WHERE id = $1 AND name = $2`, [id, name]))[0];
+    // The check's job that checked the bays (the others found batches left and looked again later).
+    const checked = await until(
+      () => t.ds.query(`SELECT id FROM pgboss.job WHERE name = $1 AND singleton_key = $2 AND state = 'completed' AND output ? 'raised'`, [QUEUES.nightlyBays, plant.plantId]),
+      (v) => v.length > 0,
+    );
+    expect(checked).toHaveLength(1);
+    const check = checked[0].id as string;
+    const [lateDone, checkDone] = [await state(late, QUEUES.nightlyBatch), await state(check, QUEUES.nightlyBays)];
+    expect([lateDone.state, checkDone.state]).toEqual(['completed', 'completed']);
+    expect(+checkDone.completed_on!).toBeGreaterThanOrEqual(+lateDone.completed_on!);
+    // Raised once on the odd one out, never on its neighbours; no flag raised and cleared on the way.
+    const mismatches = await t.ds.query(
+      `SELECT piece_id, cleared_at IS NULL AS active FROM piece_flag WHERE piece_id = ANY($1::uuid[]) AND kind = 'neighbour-mismatch'`,
+      [bay.map((p) => p.id)],
+    );
+    expect(mismatches).toEqual([{ piece_id: bay[1]!.id, active: true }]);
   });
 
   it('when one piece of a fetched batch is refused by the engine, then only its job fails and the others are stored', async () => {
