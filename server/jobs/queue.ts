@@ -27,8 +27,14 @@ interface BatchJob { pieceIds: string[]; asOf?: string }
 
 export const QUEUES = { projection: 'projection', nightly: 'projection-nightly', nightlyBatch: 'projection-nightly-batch', nightlyBays: 'projection-nightly-bays', digest: 'alert-digest' } as const;
 
-/** Seconds between the bay check's looks at whether the night's batches are done. */
-const BAYS_WAIT_SECONDS = 1;
+/**
+ * The night's bay check looks whether batches are left every 200 ms for up to 10 s, then again as a job
+ * of its own a second later: it starts within a fifth of a second of the last batch (the night's wall
+ * time includes it), and a stopping server never waits long for it.
+ */
+const BAYS_LOOK_MS = 200;
+const BAYS_LOOK_FOR_MS = 10_000;
+const BAYS_AGAIN_SECONDS = 1;
 
 export interface JobRunner extends Jobs {
   boss: PgBoss;
@@ -60,6 +66,7 @@ export async function createJobs(d: Deps, opts: { schedule: boolean }): Promise<
   const checkBaysAfterNight = (plantId: string | undefined, seconds: number): Promise<string | null> =>
     boss.send(QUEUES.nightlyBays, { plantId }, { singletonKey: plantId ?? 'all', startAfter: seconds });
   let started = false;
+  let stopping = false;
   const batchWorkers: string[] = [];
   const jobs: JobRunner = {
     boss,
@@ -72,7 +79,7 @@ export async function createJobs(d: Deps, opts: { schedule: boolean }): Promise<
       for (let i = 0; i < ids.length; i += PROJECTION_BATCH) batches.push({ name: QUEUES.nightlyBatch, data: { pieceIds: ids.slice(i, i + PROJECTION_BATCH), asOf: asOf.toISOString() } });
       if (batches.length) await boss.insert(batches);
       for (const id of batchWorkers) boss.notifyWorker(id); // idle workers start now, not at their next poll
-      await checkBaysAfterNight(plantId, BAYS_WAIT_SECONDS);
+      await checkBaysAfterNight(plantId, 0);
       return ids.length;
     },
     async alertDigest(plantId) {
@@ -119,13 +126,17 @@ export async function createJobs(d: Deps, opts: { schedule: boolean }): Promise<
         d.log.info({ pieces: n }, 'nightly projection queued');
       });
       // Every bay once a night, after the night's last batch (also of a batch retried later), whatever
-      // changed its members (a piece shipped, moved, re-planned, projected anew). While batches remain,
-      // the check looks again a second later as a job of its own, so no worker waits idle for it.
+      // changed its members (a piece shipped, moved, re-planned, projected anew).
       await boss.work<{ plantId?: string }>(QUEUES.nightlyBays, { pollingIntervalSeconds: 0.5 }, async ([job]) => {
-        const [{ n }] = await d.ds.query(`SELECT count(*)::int AS n FROM pgboss.job WHERE name = $1 AND state < 'completed'`, [QUEUES.nightlyBatch]);
-        if (n > 0) {
-          await checkBaysAfterNight(job!.data.plantId, BAYS_WAIT_SECONDS);
-          return { batchesLeft: n };
+        const giveUp = Date.now() + BAYS_LOOK_FOR_MS;
+        for (;;) {
+          const [{ n }] = await d.ds.query(`SELECT count(*)::int AS n FROM pgboss.job WHERE name = $1 AND state < 'completed'`, [QUEUES.nightlyBatch]);
+          if (n === 0) break;
+          if (stopping || Date.now() > giveUp) {
+            await checkBaysAfterNight(job!.data.plantId, BAYS_AGAIN_SECONDS);
+            return { batchesLeft: n };
+          }
+          await new Promise((r) => setTimeout(r, BAYS_LOOK_MS));
         }
         const raised = await checkAllBays(d, job!.data.plantId);
         await afterRun(raised);
@@ -137,6 +148,7 @@ export async function createJobs(d: Deps, opts: { schedule: boolean }): Promise<
       if (opts.schedule) await boss.schedule(QUEUES.nightly, '30 2 * * *', {}, { tz: 'UTC' });
     },
     async stop() {
+      stopping = true;
       await boss.stop({ graceful: true, wait: true, timeout: 20_000 });
       await pool?.close();
     },
