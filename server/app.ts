@@ -80,6 +80,14 @@ export function createApp(d: Deps, clientDir: string | null = CLIENT_DIR): Expre
     });
   }
   const api = express.Router();
+  // API answers carry the plant's QC record, often on shared yard tablets: never stored by a browser or
+  // proxy (OWASP Session Management Cheat Sheet, "Web Content Caching"). With nothing stored there is
+  // nothing to revalidate, so no ETag is computed over every body (a hash of the whole answer per request).
+  app.set('etag', false);
+  api.use((_req, res, next) => {
+    res.setHeader('Cache-Control', 'no-store');
+    next();
+  });
   api.use(express.json({ limit: '256kb' }));
   api.use(cookieParser());
   api.use(sessionMiddleware(d.cfg, d.sessions ?? uncachedSessionUsers(d.ds)));

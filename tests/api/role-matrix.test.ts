@@ -88,6 +88,8 @@ describe('role × route matrix', () => {
       for (const role of ROLES) {
         const res = await call(r, sessionHeaders(t.cfg, a.users[role].id), a);
         const allowed = r.roles === 'public' || (r.roles as readonly Role[]).includes(role);
+        // The plant's record is never kept by a browser or proxy (server/app.ts).
+        expect([res.headers['cache-control'], res.headers.etag], `${role} ${r.method} ${r.path} caching`).toEqual(['no-store', undefined]);
         if (allowed) expect([401, 403], `${role} ${r.method} ${r.path} → ${res.status} ${JSON.stringify(res.body)}`).not.toContain(res.status);
         else {
           expect(res.status, `${role} ${r.method} ${r.path}`).toBe(403);
