@@ -9,13 +9,14 @@ import pino from 'pino';
 import { createApp } from '../app';
 import { cachedSessionUsers } from '../auth/session-users';
 import { createDataSource } from '../db/data-source';
+import { keptPages } from '../db/kept-pages';
 import { createMailer } from '../mail/mailer';
 import { freshBenchDatabase, makeDataset } from './dataset';
 import { median, spread } from './stats';
 
 type Result = { rps: number; p99: number; non2xx: number; errors: number; ok: number };
 
-function run(url: string, o: { connections: number; duration: number; headers?: Record<string, string>; method?: string; body?: (i: number) => string; path?: (i: number) => string }): Promise<Result> {
+function run(url: string, o: { connections: number; duration: number; headers?: Record<string, string>; method?: string; body?: (i: number) => string; path?: (i: number) => string; before?: () => void }): Promise<Result> {
   let i = 0;
   return new Promise((resolve, reject) => {
     autocannon(
@@ -25,6 +26,7 @@ function run(url: string, o: { connections: number; duration: number; headers?: 
         duration: o.duration,
         headers: o.headers,
         requests: [{ method: (o.method ?? 'GET') as 'GET', setupRequest: (req) => {
+          o.before?.();
           const n = i++;
           return { ...req, path: o.path ? o.path(n) : req.path, body: o.body ? o.body(n) : undefined, headers: { ...req.headers, ...(o.body ? { 'Idempotency-Key': `bench-post-${Date.now()}-${n}` } : {}) } };
         } }],
@@ -65,16 +67,18 @@ async function main(): Promise<void> {
   const rounds = Number(process.env.BENCH_ROUNDS ?? 3);
   const GETS = {
     anchor: { name: 'anchor: bare Express + pg by id', url: bareUrl, headers: {}, path: (i: number) => `/bare/${ids[i % ids.length]}` },
-    review: { name: 'review list (50 flagged pieces)', url: `${oursUrl}/api/review?view=all-flagged&pageSize=50`, headers, path: undefined },
+    review: { name: 'review list (50 flagged pieces, kept)', url: `${oursUrl}/api/review?view=all-flagged&pageSize=50`, headers, path: undefined },
+    // The same list with the server's kept pages dropped before each request, as after a change each time.
+    reviewBuilt: { name: 'review list, built for each request', url: `${oursUrl}/api/review?view=all-flagged&pageSize=50`, headers, path: undefined, before: () => keptPages(ds, 'review').clear() },
     piece: { name: 'piece page (1,000 pieces in turn)', url: oursUrl, headers, path: (i: number) => `/api/pieces/${ids[i % ids.length]}` },
     pieceFirst: { name: 'piece page, first view (50,000 in turn)', url: oursUrl, headers, path: (i: number) => `/api/pieces/${allIds[i % allIds.length]}` },
     list: { name: 'piece list (50 of 50,000, latest reading)', url: `${oursUrl}/api/pieces?sort=shipDate&pageSize=50`, headers, path: undefined },
   };
-  const results: Record<keyof typeof GETS, Result[]> = { anchor: [], review: [], piece: [], pieceFirst: [], list: [] };
+  const results: Record<keyof typeof GETS, Result[]> = { anchor: [], review: [], reviewBuilt: [], piece: [], pieceFirst: [], list: [] };
   for (let r = 0; r < rounds; r++) {
     for (const key of Object.keys(GETS) as Array<keyof typeof GETS>) {
-      const g = GETS[key];
-      results[key].push(await run(g.url, { connections: 10, duration: 10, headers: g.headers, path: g.path }));
+      const g: { url: string; headers: Record<string, string>; path?: (i: number) => string; before?: () => void } = GETS[key];
+      results[key].push(await run(g.url, { connections: 10, duration: 10, headers: g.headers, path: g.path, before: g.before }));
     }
   }
   const before = Number((await ds.query(`SELECT count(*) FROM reading WHERE request_hash <> 'bench'`))[0].count);

@@ -13,7 +13,7 @@ import { cachedSessionUsers } from '../auth/session-users';
 import { createDataSource } from '../db/data-source';
 import { createJobs } from '../jobs/queue';
 import { createMailer } from '../mail/mailer';
-import { piecePages } from '../pieces/piece-pages';
+import { keptSize } from '../db/kept-pages';
 import { freshBenchDatabase, makeDataset } from './dataset';
 import { median } from './stats';
 
@@ -50,11 +50,11 @@ async function main(): Promise<void> {
     gc();
     const m = process.memoryUsage();
     samples.push({
-      atS: Math.round((Date.now() - t0) / 1000), heapMb: m.heapUsed / 2 ** 20, rssMb: m.rss / 2 ** 20, keptMb: piecePages(ds).calculatedSize / 2 ** 20,
+      atS: Math.round((Date.now() - t0) / 1000), heapMb: m.heapUsed / 2 ** 20, rssMb: m.rss / 2 ** 20, keptMb: keptSize(ds) / 2 ** 20,
       poolTotal: pool.totalCount, poolIdle: pool.idleCount, poolWaiting: pool.waitingCount, handles: process.getActiveResourcesInfo().length,
     });
     const s = samples.at(-1)!;
-    console.log(`${String(s.atS).padStart(5)} s   heap ${s.heapMb.toFixed(1).padStart(6)} MB (kept piece pages ${s.keptMb.toFixed(1)} MB)   rss ${s.rssMb.toFixed(0).padStart(4)} MB   pool ${s.poolTotal} open, ${s.poolIdle} idle, ${s.poolWaiting} waiting   handles ${s.handles}`);
+    console.log(`${String(s.atS).padStart(5)} s   heap ${s.heapMb.toFixed(1).padStart(6)} MB (kept pages ${s.keptMb.toFixed(1)} MB)   rss ${s.rssMb.toFixed(0).padStart(4)} MB   pool ${s.poolTotal} open, ${s.poolIdle} idle, ${s.poolWaiting} waiting   handles ${s.handles}`);
   };
   const timer = setInterval(sample, SAMPLE_EVERY_S * 1000);
   sample();
@@ -98,9 +98,9 @@ async function main(): Promise<void> {
   const end = samples.at(-1)!;
   console.log(`\n${result.requests.total} requests in ${SECONDS} s (${result.requests.average.toFixed(1)}/s), non-2xx ${result.non2xx}, errors ${result.errors}, p99 ${result.latency.p99} ms`);
   const signed = (v: number): string => `${v >= 0 ? '+' : ''}${v.toFixed(1)} MB`;
-  console.log(`heap after GC, median of the first third → last third of the samples: ${signed(heapGrowth)}; besides the kept piece pages: ${signed(restGrowth)}`);
+  console.log(`heap after GC, median of the first third → last third of the samples: ${signed(heapGrowth)}; besides the kept pages: ${signed(restGrowth)}`);
   console.log(`open handles besides pool connections, the same medians: ${handleGrowth >= 0 ? '+' : ''}${handleGrowth}; pool at the end: ${end.poolTotal} open, ${end.poolWaiting} waiting`);
-  console.log('flat means: the heap besides kept piece pages grows by at most 5 MB, other handles by at most 2, nobody waiting for a connection');
+  console.log('flat means: the heap besides kept pages grows by at most 5 MB, other handles by at most 2, nobody waiting for a connection');
   console.log(`verdict: ${restGrowth <= 5 && handleGrowth <= 2 && end.poolWaiting === 0 ? 'flat' : 'NOT flat'}`);
 
   server.close();

@@ -18,6 +18,7 @@ import { ProjectionCurveBinary1797379200000 } from '../../migrations/17973792000
 import { PiecePageRevision1797465600000 } from '../../migrations/1797465600000-PiecePageRevision';
 import { PieceCount1797552000000 } from '../../migrations/1797552000000-PieceCount';
 import { ReviewItemShown1797638400000 } from '../../migrations/1797638400000-ReviewItemShown';
+import { ReviewPageRevision1797724800000 } from '../../migrations/1797724800000-ReviewPageRevision';
 import { AuditEvent } from '../audit/audit-event.entity';
 import { AuthToken } from '../auth/auth-token.entity';
 import { Decision } from '../decisions/decision.entity';
@@ -31,7 +32,7 @@ import { User } from '../users/user.entity';
 
 // Entities and migrations are listed, not globbed, so the bundle and the reader both see them.
 export const ENTITIES = [Plant, Job, User, AuthToken, MemberDesign, Piece, Reading, ReadingPhoto, Decision, AuditEvent];
-export const MIGRATIONS = [Initial1796169600000, ReadingPhoto1796256000000, Projections1796342400000, EngineeringDesk1796428800000, ReviewItem1796515200000, ProjectionBatch1796601600000, PieceListIndexes1796688000000, ProjectionResultHash1796774400000, ReviewItemRefresh1796860800000, ReviewCount1796947200000, ReviewItemFlagTimes1797033600000, SessionUserNotify1797120000000, ReviewItemDoc1797206400000, ReadingLiveIndex1797292800000, ProjectionCurveBinary1797379200000, PiecePageRevision1797465600000, PieceCount1797552000000, ReviewItemShown1797638400000];
+export const MIGRATIONS = [Initial1796169600000, ReadingPhoto1796256000000, Projections1796342400000, EngineeringDesk1796428800000, ReviewItem1796515200000, ProjectionBatch1796601600000, PieceListIndexes1796688000000, ProjectionResultHash1796774400000, ReviewItemRefresh1796860800000, ReviewCount1796947200000, ReviewItemFlagTimes1797033600000, SessionUserNotify1797120000000, ReviewItemDoc1797206400000, ReadingLiveIndex1797292800000, ProjectionCurveBinary1797379200000, PiecePageRevision1797465600000, PieceCount1797552000000, ReviewItemShown1797638400000, ReviewPageRevision1797724800000];
 
 export function createDataSource(url: string, poolSize = 10): DataSource {
   return new DataSource({

@@ -5,7 +5,7 @@ import { isoSql, JsonText } from '../db/json-sql';
 import { preparedRows } from '../db/prepared';
 import { notFound } from '../http/errors';
 import { READING_COLUMNS, READING_FROM } from '../readings/readings.repository';
-import { piecePages } from './piece-pages';
+import { keptPages } from '../db/kept-pages';
 import { PIECE_FROM, pieceJson } from './pieces.repository';
 
 /** Who may see the piece: the user's plant, and a viewer's job only. */
@@ -30,7 +30,7 @@ const STAMP_FROM = 'JOIN plant pl ON pl.id = p.plant_id LEFT JOIN piece_page pp 
  */
 export async function pieceDetail(d: Deps, user: SessionUser, id: string): Promise<JsonText<PieceDetail>> {
   const { args, where } = access(user, id);
-  const pages = piecePages(d.ds);
+  const pages = keptPages(d.ds, 'piece');
   const kept = pages.get(id);
   if (kept) {
     const [now] = await preparedRows<{ stamp: string }>(d.ds, `SELECT ${STAMP} AS stamp FROM piece p ${STAMP_FROM} WHERE ${where}`, args);

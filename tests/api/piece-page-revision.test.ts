@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { pieceDetailSchema, type PieceDetail } from '#shared/api/piece-detail';
-import { piecePages } from '#server/pieces/piece-pages';
+import { keptPages } from '#server/db/kept-pages';
 import { signIn, type Session, type TestApp } from '../helpers/app';
 import { appWithPlant, type PlantWithUsers } from '../helpers/fixture';
 import { buildJob, buildPiece, buildPlantWithUsers, buildReading, buildUser, PASSWORD } from '../helpers/factories';
@@ -27,14 +27,14 @@ async function view(s: Session, pieceId: string): Promise<PieceDetail> {
 
 /** The page as built afresh, with nothing kept. */
 async function built(s: Session, pieceId: string): Promise<PieceDetail> {
-  piecePages(t.ds).clear();
+  keptPages(t.ds, 'piece').clear();
   return view(s, pieceId);
 }
 
 /** Views the page (so it is kept), makes the change, and returns the next view, checked against a fresh build. */
 async function afterChange(pieceId: string, change: () => Promise<unknown>): Promise<PieceDetail> {
   await view(qc, pieceId);
-  expect(piecePages(t.ds).has(pieceId)).toBe(true);
+  expect(keptPages(t.ds, 'piece').has(pieceId)).toBe(true);
   await change();
   const next = await view(qc, pieceId);
   expect(next).toEqual(await built(qc, pieceId));
@@ -124,7 +124,7 @@ describe('GET /api/pieces/:id from a kept page', () => {
     const jobB = await buildJob(t.ds, plant.plantId);
     const piece = await buildPiece(t.ds, plant.plantId, { jobId: jobB.id });
     await view(qc, piece.id);
-    expect(piecePages(t.ds).has(piece.id)).toBe(true);
+    expect(keptPages(t.ds, 'piece').has(piece.id)).toBe(true);
     const viewer = await signIn(t.app, plant.users.viewer.email, PASSWORD); // a viewer of another job
     expect((await viewer.agent.get(`/api/pieces/${piece.id}`)).status).toBe(404);
     const stranger = await buildPlantWithUsers(t.ds);

@@ -81,6 +81,16 @@ async function expectDocsFromScratch(plantId: string): Promise<void> {
   expect(stored.map((r) => JSON.parse(r.doc))).toEqual(expected);
 }
 
+/** The plant's stored rows, as one fingerprint, and its review revision. */
+async function rowsAndRevision(plantId: string): Promise<{ rows: string; rev: number }> {
+  const [r] = await t.ds.query(
+    `SELECT (SELECT coalesce(md5(string_agg(x::text, '|' ORDER BY x.piece_id)), '') FROM review_item x WHERE x.plant_id = $1) AS rows,
+            (SELECT coalesce(sum(rev), 0) FROM review_count WHERE plant_id = $1) AS rev`,
+    [plantId],
+  );
+  return { rows: r.rows, rev: Number(r.rev) };
+}
+
 // The kept totals of the unfiltered views (migration ReviewCount) against a count of the summary rows.
 const KEPT_TOTALS = `SELECT coalesce(sum(flagged), 0)::int AS flagged, coalesce(sum(needs_decision), 0)::int AS needs_decision FROM review_count WHERE plant_id = $1`;
 const COUNTED_TOTALS = `SELECT count(*)::int AS flagged, (count(*) FILTER (WHERE needs_decision))::int AS needs_decision FROM review_item WHERE plant_id = $1 AND status <> 'shipped'`;
@@ -96,6 +106,7 @@ describe('the stored review summary', () => {
         let clock = Date.UTC(2026, 10, 1);
         const at = (): string => new Date((clock += 60_000)).toISOString();
         for (const o of ops) {
+          const before = await rowsAndRevision(plant.id);
           const id = 'piece' in o ? pieces[o.piece] : undefined;
           if (o.op === 'raise') {
             await t.ds.query(
@@ -132,6 +143,10 @@ describe('the stored review summary', () => {
           }
           // After every step: a later write to the same piece would hide a missed refresh.
           await expectDocsFromScratch(plant.id);
+          // The plant's review revision (migration ReviewPageRevision) never goes back, and moves whenever a row changed.
+          const after = await rowsAndRevision(plant.id);
+          expect(after.rev).toBeGreaterThanOrEqual(before.rev);
+          if (after.rows !== before.rows) expect(after.rev, `${o.op} changed the rows`).toBeGreaterThan(before.rev);
         }
         expect(await t.ds.query(STORED, [plant.id])).toEqual(await t.ds.query(FROM_SCRATCH, [plant.id]));
         expect(await t.ds.query(KEPT_TOTALS, [plant.id])).toEqual(await t.ds.query(COUNTED_TOTALS, [plant.id]));
