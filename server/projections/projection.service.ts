@@ -69,7 +69,7 @@ export async function runProjectionBatch(d: Deps, ids: string[], now = new Date(
   // nightly run checks no bay in its batches: checked batch by batch, a bay would be checked again with
   // each batch holding one of its members, half of them projected for the night and half not, raising
   // and clearing flags that the night's results do not bear out (measured on a first night: each bay
-  // checked about eight times, a fifth of the database's time).
+  // checked about eight times, a quarter of the database's time).
   const bays = new Map<string, Bay>();
   if (opts.bays === 'all') for (const { piece } of projected) if (piece.bay) bays.set(`${piece.plantId}|${piece.jobId}|${piece.bay}`, { plantId: piece.plantId, jobId: piece.jobId, bay: piece.bay, unit: piece.unit });
   const bayRaised = await checkBays(d, [...bays.values()]);
